@@ -565,3 +565,55 @@ def evaluate(
     for article in articles:
         total = total + score_article(article, grouped[article.name])
     return total
+
+
+# --------------------------------------------------------------------------------------------
+# Plot
+
+
+#: Breakdown prefixes shown in the plot, in this order.
+PLOT_PREFIXES: tuple[str, ...] = ("scenario=", "columns=", "where=", "table_style=")
+
+
+def plot_scores(
+    scores: Mapping[str, Scores], path: str | Path, *, title: str = "Value-level F1"
+) -> Path:
+    """A bar chart (PNG) of value-level F1 per scenario and layout feature, one bar per system.
+
+    Args:
+        scores: system name (e.g. "winnow", "baseline") -> its scores.
+        path: the PNG file to write.
+        title: the chart's title.
+
+    Returns:
+        The path written.
+    """
+    import matplotlib
+
+    matplotlib.use("Agg")
+    import matplotlib.pyplot as plt
+
+    keys = sorted(
+        {k for s in scores.values() for k in s.breakdown if k.startswith(PLOT_PREFIXES)},
+        key=lambda k: (next(i for i, p in enumerate(PLOT_PREFIXES) if k.startswith(p)), k),
+    )
+    width = 0.8 / max(1, len(scores))
+    figure, axes = plt.subplots(figsize=(max(6.0, 0.55 * len(keys) + 2), 4.2), dpi=100)
+    for index, (name, system) in enumerate(scores.items()):
+        heights = [system.breakdown.get(k, (PRFScore(), PRFScore()))[0].fscore for k in keys]
+        positions = [i + (index - (len(scores) - 1) / 2) * width for i in range(len(keys))]
+        axes.bar(
+            positions, heights, width=width, label=f"{name} (overall {system.value.fscore:.2f})"
+        )
+    axes.set_xticks(range(len(keys)))
+    axes.set_xticklabels([k.replace("_", " ") for k in keys], rotation=35, ha="right", fontsize=8)
+    axes.set_ylim(0, 1.05)
+    axes.set_ylabel("F1")
+    axes.set_title(title)
+    axes.legend(fontsize=8, loc="lower right")
+    axes.grid(axis="y", alpha=0.3)
+    figure.tight_layout()
+    path = Path(path)
+    figure.savefig(path)
+    plt.close(figure)
+    return path

@@ -19,6 +19,8 @@ from extract.errors import WinnowError
 #: Subcommand name -> (module under extract.cli, one-line help). Add a line per new command.
 COMMANDS: dict[str, tuple[str, str]] = {
     "parse": ("parse", "Read articles and print their structure: sections, blocks, tables."),
+    "extract": ("extract", "Propose data-point records from articles into the store / JSON Lines."),
+    "evaluate": ("evaluate", "Score the first pass against gold files, beside a naive baseline."),
 }
 
 
