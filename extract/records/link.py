@@ -1,0 +1,231 @@
+"""Linking: fill each draft's gaps from the article around it, then make it a Proposal.
+
+Precedence, nearest first (docs/records.md lists the whole order):
+
+* n: the data point's own cell or sentence > the table's n row/column or the group's header >
+  the caption, legend or footnotes > a group n stated elsewhere ("vehicle (n = 9)") > the methods'
+  per-group statement ("n = 8 per group"; flag ``n_from_methods``).
+* dispersion kind: the cell or sentence > the table headers > the caption, legend or footnotes >
+  the methods' statement ("Data are mean ± SEM"; flag ``dispersion_from_methods``) > an assumption
+  by the value's shape (flag ``dispersion_kind_assumed``).
+
+Linking then derives the SD (:mod:`extract.records.stats`), normalises the unit through
+:func:`extract.units.normalize`, scores the confidence from where each field was found, and gives
+the stable id from :func:`~extract.records.proposal.make_id`.
+"""
+
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass, field
+
+from extract.ingest.document import Document
+from extract.records.draft import FOUND_WEIGHTS, Draft
+from extract.records.patterns import find_dispersion_statement, find_group_n
+from extract.records.proposal import Dispersion, Proposal, make_id
+from extract.records.stats import derive_sd
+from extract.units import normalize
+
+#: Weight of each field in the confidence (value and outcome count most).
+CONFIDENCE_WEIGHTS: dict[str, float] = {
+    "value": 3.0,
+    "outcome": 2.0,
+    "group": 1.0,
+    "unit": 1.0,
+    "dispersion": 1.0,
+    "n": 1.0,
+}
+
+_GROUP_N_STATEMENT = re.compile(
+    r"(?:^|[,;:(]\s*|\band\s+|\bthe\s+)([A-Za-z][\w\-/ .]{0,40}?)\s*(?:groups?\s*)?"
+    r"[(\[,]\s*n\s*=\s*(\d+)\s*[)\],;]",
+    re.I,
+)
+_DOSE = re.compile(r"\d\s*(?:mg|µg|μg|ug|g|mL|nmol|µmol|μmol|mmol|IU|U)\s*/\s*(?:kg|day|d)\b", re.I)
+
+
+@dataclass(frozen=True)
+class ArticleContext:
+    """What the article states once for all its data points (methods, statistics section).
+
+    Attributes:
+        article: the DOI when the article states one, else the file stem.
+        file: the input file's base name.
+        n_per_group: the methods' per-group sample size, if stated once.
+        group_n: per-group n stated in the text ("vehicle (n = 9)"), keyed by lower-cased group.
+        dispersion_kind: the kind the methods declare ("Values are mean ± SEM"), if any.
+        statistic: "mean" or "median" when the methods declare how values are summarised.
+        subject: species, strain, sex as stated, if found.
+    """
+
+    article: str
+    file: str
+    n_per_group: int | None = None
+    group_n: dict[str, int] = field(default_factory=dict)
+    dispersion_kind: str | None = None
+    statistic: str | None = None
+    subject: str | None = None
+
+
+def article_id(document: Document) -> str:
+    """The article key of the proposal contract: the DOI when stated, else the file stem."""
+    return document.doi or document.name
+
+
+def read_context(document: Document, *, subject: str | None = None) -> ArticleContext:
+    """Read the article-wide statements: per-group n, dispersion kind, group sizes.
+
+    The methods section is read first; when it says nothing, the whole text is (a statement in
+    the abstract or a legend still declares how the article reports its data).
+    """
+    methods = " ".join(b.text for b in document.blocks if b.section == "methods")
+    everything = " ".join(b.text for b in document.blocks if b.section != "references")
+    kind = find_dispersion_statement(methods) or find_dispersion_statement(everything)
+    n_per_group = find_group_n(methods)
+    group_n: dict[str, int] = {}
+    for match in _GROUP_N_STATEMENT.finditer(methods):
+        name = _group_key(match.group(1))
+        if name and name not in group_n:
+            group_n[name] = int(match.group(2))
+    statistic = None
+    if re.search(r"\bmedians?\b[^.]{0,40}(?:IQR|interquartile|range)", methods, re.I):
+        statistic = "median"
+    elif re.search(r"\bmeans?\s*(?:±|\+/-|\(|of)", methods, re.I):
+        statistic = "mean"
+    return ArticleContext(
+        article=article_id(document),
+        file=document.path.replace("\\", "/").rsplit("/", 1)[-1],
+        n_per_group=n_per_group,
+        group_n=group_n,
+        dispersion_kind=kind,
+        statistic=statistic,
+        subject=subject,
+    )
+
+
+def _group_key(text: str) -> str:
+    words = re.sub(r"[^\w/ .-]", " ", text.lower()).split()
+    while words and words[0] in ("the", "and", "in", "of", "with"):
+        words = words[1:]
+    while words and words[-1] in ("group", "groups", "arm"):
+        words = words[:-1]
+    return " ".join(words)
+
+
+def link_n(draft: Draft, context: ArticleContext) -> Draft:
+    """Give a draft with no n the group's stated n, else the methods' per-group n (flagged)."""
+    if draft.n is not None:
+        return draft
+    if draft.group:
+        key = _group_key(draft.group)
+        for name, n in context.group_n.items():
+            if key and (key == name or key in name.split(" / ") or name.endswith(key)):
+                return draft.with_found("n", "document", n=n)
+    if context.n_per_group is not None:
+        return draft.with_found("n", "methods", n=context.n_per_group).with_flag("n_from_methods")
+    return draft
+
+
+def link_dispersion(draft: Draft, context: ArticleContext) -> Draft:
+    """Give a spread of unknown kind the methods' kind, else one assumed from its shape (flagged)."""
+    if draft.dispersion_value is None or draft.dispersion_kind is not None:
+        return draft
+    is_pair = isinstance(draft.dispersion_value, tuple)
+    kind = context.dispersion_kind
+    if kind is not None and is_pair == (kind in ("CI95", "IQR", "range")):
+        return draft.with_found("dispersion", "methods", dispersion_kind=kind).with_flag(
+            "dispersion_from_methods"
+        )
+    if is_pair:
+        assumed = "IQR" if draft.statistic == "median" else "CI95"
+    else:
+        assumed = "SD"
+    return draft.with_found("dispersion", "assumed", dispersion_kind=assumed).with_flag(
+        "dispersion_kind_assumed"
+    )
+
+
+def link_statistic(draft: Draft, context: ArticleContext) -> Draft:
+    """Decide the statistic from the dispersion kind, else the methods, else "single"."""
+    if draft.statistic is not None:
+        return draft
+    if draft.dispersion_kind in ("IQR",):
+        return draft.with_found("statistic", "cell", statistic="median")
+    if draft.dispersion_kind in ("SD", "SEM", "CI95"):
+        return draft.with_found("statistic", "cell", statistic="mean")
+    if draft.dispersion_kind == "range":
+        return draft.with_found("statistic", "cell", statistic=context.statistic or "median")
+    if context.statistic is not None:
+        return draft.with_found("statistic", "methods", statistic=context.statistic)
+    return draft.with_found("statistic", "assumed", statistic="single")
+
+
+def confidence(draft: Draft) -> float:
+    """A score in 0..1: the weighted mean of how each field was found (FOUND_WEIGHTS).
+
+    Fields the data point has no need of (no spread printed, no group) do not count against it;
+    a missing n or outcome does.
+    """
+    total = 0.0
+    weight = 0.0
+    for name, w in CONFIDENCE_WEIGHTS.items():
+        how = draft.how(name)
+        if how is None:
+            if name in ("dispersion", "group", "unit"):
+                continue
+            how = "missing"
+        total += w * FOUND_WEIGHTS.get(how, 0.6)
+        weight += w
+    score = total / weight if weight else 0.0
+    score -= 0.1 * sum(1 for f in draft.flags if f in ("unknown_unit", "dispersion_kind_assumed"))
+    return round(min(max(score, 0.0), 1.0), 3)
+
+
+def finish(draft: Draft, context: ArticleContext) -> Proposal:
+    """Link one draft and make it a Proposal (SD derived, unit normalised, confidence, id)."""
+    draft = link_n(draft, context)
+    draft = link_dispersion(draft, context)
+    draft = link_statistic(draft, context)
+    norm = normalize(draft.value, draft.unit)
+    for flag in norm.flags:
+        if flag == "unknown_unit":
+            draft = draft.with_flag(flag)
+    dispersion = (
+        Dispersion(kind=draft.dispersion_kind, value=draft.dispersion_value)
+        if draft.dispersion_kind is not None and draft.dispersion_value is not None
+        else None
+    )
+    sd = derive_sd(dispersion, draft.n)
+    intervention = draft.intervention
+    if intervention is None and draft.group and _DOSE.search(draft.group):
+        intervention = draft.group
+    return Proposal(
+        id=make_draft_id(context.article, draft),
+        article=context.article,
+        file=context.file,
+        outcome=draft.outcome,
+        group=draft.group,
+        statistic=draft.statistic or "single",
+        value=draft.value,
+        unit=draft.unit,
+        unit_ucum=norm.ucum,
+        value_normalized=norm.value if norm.canonical_unit else None,
+        unit_normalized=norm.canonical_unit,
+        dispersion=dispersion,
+        sd=round(sd, 6) if sd is not None else None,
+        n=draft.n,
+        time_point=draft.time_point,
+        method=draft.method,
+        subject=draft.subject or context.subject,
+        intervention=intervention,
+        source=draft.source,
+        extractor=draft.extractor,
+        confidence=confidence(draft),
+        flags=draft.flags,
+    )
+
+
+def make_draft_id(article: str, draft: Draft) -> str:
+    """The stable id: article, extractor, source kind, page or ref, location and value as written."""
+    where = draft.source.page if draft.source.page is not None else draft.source.ref
+    return make_id(article, draft.extractor, draft.source.kind, where, *draft.location, draft.raw)
