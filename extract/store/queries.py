@@ -682,7 +682,7 @@ class Store:
             .select_from(t.proposals)
             .where(t.proposals.c.article_id == article_id)
         ).scalar_one()
-        rows = []
+        rows: list[dict[str, Any]] = []
         now = utc_now()
         for proposal in proposals:
             if proposal.id in existing:

@@ -9,10 +9,10 @@ import time
 from pathlib import Path
 
 import pytest
-from conftest import KEY, make_document, sample_proposals
 
 from extract.errors import StoreError
 from extract.store import Store, open_store
+from tests.store.samples import KEY, make_document, sample_proposals
 
 
 @pytest.fixture

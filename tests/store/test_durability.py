@@ -8,9 +8,8 @@ import subprocess
 import sys
 from pathlib import Path
 
-from conftest import KEY, make_document, sample_proposals
-
 from extract.store import open_store
+from tests.store.samples import KEY, make_document, sample_proposals
 
 WRITER = """
 import sys, time

@@ -5,10 +5,10 @@ from __future__ import annotations
 from pathlib import Path
 
 import pytest
-from conftest import KEY, make_document, make_proposal, sample_proposals
 
 from extract.errors import StoreError
 from extract.store import Store, open_store
+from tests.store.samples import KEY, make_document, make_proposal, sample_proposals
 
 
 def test_add_article_keeps_metadata_and_document(store: Store) -> None:
