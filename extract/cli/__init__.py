@@ -20,6 +20,7 @@ from extract.errors import WinnowError
 COMMANDS: dict[str, tuple[str, str]] = {
     "parse": ("parse", "Read articles and print their structure: sections, blocks, tables."),
     "extract": ("extract", "Propose data-point records from articles into the store / JSON Lines."),
+    "decisions": ("decisions", "Export or import the curator decision log as JSON Lines."),
     "evaluate": ("evaluate", "Score the first pass against gold files, beside a naive baseline."),
 }
 
