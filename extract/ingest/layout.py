@@ -1,0 +1,284 @@
+"""Page layout: words to lines, margins left out, columns split by geometry, lines to blocks.
+
+A *line* here is a run of words on one baseline with no wide gap inside, so two columns give two
+lines side by side. Columns are found per page: the gutter is the vertical strip near the middle
+that the most lines keep clear of; lines that cross it are full width. Reading order walks the
+page top-down in bands: a full-width line is read where it stands, and a run of column lines
+between two full-width lines is read left column first, then right.
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Sequence
+from dataclasses import dataclass
+
+from extract.ingest.words import RawWord
+
+#: A gap wider than this many font sizes splits a line into two (column gutter, table cell).
+LINE_GAP_EM = 1.5
+#: Share of the page height at top and bottom where running headers and footers live.
+MARGIN_SHARE = 0.09
+#: Lines needed on each side of a gutter before a page counts as two-column.
+MIN_COLUMN_LINES = 4
+
+_NUMBER = re.compile(r"^\d{1,4}$")
+_PAGE_NUMBER = re.compile(r"^(page\s*)?\d{1,4}(\s*(of|/)\s*\d{1,4})?$", re.IGNORECASE)
+
+
+@dataclass(frozen=True)
+class Line:
+    """Words on one baseline with no wide gap, in page space."""
+
+    words: tuple[RawWord, ...]
+    page: int
+
+    @property
+    def text(self) -> str:
+        """The words joined by single spaces."""
+        return " ".join(w.text for w in self.words)
+
+    @property
+    def x0(self) -> float:
+        """Left edge."""
+        return self.words[0].x0
+
+    @property
+    def x1(self) -> float:
+        """Right edge."""
+        return max(w.x1 for w in self.words)
+
+    @property
+    def top(self) -> float:
+        """Top edge."""
+        return min(w.top for w in self.words)
+
+    @property
+    def bottom(self) -> float:
+        """Bottom edge."""
+        return max(w.bottom for w in self.words)
+
+    @property
+    def size(self) -> float:
+        """The most common font size of its words."""
+        sizes = [round(w.size, 1) for w in self.words]
+        return max(set(sizes), key=sizes.count)
+
+    @property
+    def bold(self) -> bool:
+        """Whether most of its characters are bold."""
+        bold = sum(len(w.text) for w in self.words if w.bold)
+        return bold * 2 > sum(len(w.text) for w in self.words)
+
+
+def words_to_lines(words: Sequence[RawWord], page: int) -> list[Line]:
+    """Lines from words (upright words only), split at gaps wider than :data:`LINE_GAP_EM`.
+
+    Args:
+        words: the page's words.
+        page: the 1-based page number.
+
+    Returns:
+        Lines sorted top-down, left to right.
+    """
+    upright = sorted((w for w in words if w.upright), key=lambda w: (w.bottom, w.x0))
+    rows: list[list[RawWord]] = []
+    for word in upright:
+        if rows:
+            last = rows[-1]
+            ref = last[-1]
+            tolerance = max(2.0, 0.45 * min(ref.size or 10.0, word.size or 10.0))
+            if abs(word.bottom - ref.bottom) <= tolerance or (
+                word.top >= ref.top - 1 and word.bottom <= ref.bottom + 1
+            ):
+                last.append(word)
+                continue
+        rows.append([word])
+    lines: list[Line] = []
+    for row in rows:
+        row.sort(key=lambda w: w.x0)
+        current = [row[0]]
+        for word in row[1:]:
+            prev = current[-1]
+            size = max(prev.size, word.size, 4.0)
+            if word.x0 - prev.x1 > LINE_GAP_EM * size:
+                lines.append(Line(tuple(current), page))
+                current = [word]
+            else:
+                current.append(word)
+        lines.append(Line(tuple(current), page))
+    lines.sort(key=lambda ln: (round(ln.top), ln.x0))
+    return lines
+
+
+def drop_line_numbers(words: list[RawWord]) -> list[RawWord]:
+    """Words without margin line numbers: five or more bare numbers aligned in a column left
+    of (or right of) nearly all other text."""
+    numbers = [w for w in words if _NUMBER.match(w.text)]
+    others = sorted(w.x0 for w in words if not _NUMBER.match(w.text))
+    if len(numbers) < 5 or len(others) < 20:
+        return words
+    left = others[len(others) // 50]
+    right = sorted(w.x1 for w in words if not _NUMBER.match(w.text))[-(len(others) // 50) - 1]
+    margin = [w for w in numbers if w.x1 < left - 2 or w.x0 > right + 2]
+    if len(margin) < 5:
+        return words
+    drop = {id(w) for w in margin}
+    return [w for w in words if id(w) not in drop]
+
+
+def margin_key(line: Line, height: float) -> str | None:
+    """A key for a line in the top or bottom margin (digits folded), else ``None``."""
+    if height * MARGIN_SHARE < line.top < height * (1 - MARGIN_SHARE):
+        return None
+    zone = "top" if line.top <= height * MARGIN_SHARE else "bottom"
+    return zone + ":" + re.sub(r"\d+", "#", line.text.lower()).strip()
+
+
+def is_page_number(line: Line) -> bool:
+    """Whether the line is only a page number ("7", "Page 7 of 12")."""
+    return bool(_PAGE_NUMBER.match(line.text.strip()))
+
+
+def find_gutter(lines: Sequence[Line], width: float) -> float | None:
+    """The x of a two-column gutter, or ``None`` for a one-column page."""
+    narrow = [ln for ln in lines if ln.x1 - ln.x0 < 0.55 * width]
+    if len(narrow) < 2 * MIN_COLUMN_LINES:
+        return None
+    best: tuple[int, float] | None = None
+    x = 0.3 * width
+    while x <= 0.7 * width:
+        left = sum(1 for ln in narrow if ln.x1 <= x)
+        right = sum(1 for ln in narrow if ln.x0 >= x)
+        crossing = sum(1 for ln in lines if ln.x0 < x < ln.x1)
+        if left >= MIN_COLUMN_LINES and right >= MIN_COLUMN_LINES:
+            score = min(left, right) * 2 - crossing * 3
+            if crossing <= 0.4 * (left + right) and (best is None or score > best[0]):
+                best = (score, x)
+        x += 2.0
+    if best is None or best[0] <= 0:
+        return None
+    return best[1]
+
+
+def reading_order(lines: Sequence[Line], gutter: float | None) -> list[tuple[Line, int]]:
+    """Lines in reading order with their column (0 full width or single, 1 left, 2 right)."""
+    ordered = sorted(lines, key=lambda ln: (ln.top, ln.x0))
+    if gutter is None:
+        return [(ln, 0) for ln in ordered]
+    out: list[tuple[Line, int]] = []
+    left: list[Line] = []
+    right: list[Line] = []
+
+    def flush() -> None:
+        out.extend((ln, 1) for ln in left)
+        out.extend((ln, 2) for ln in right)
+        left.clear()
+        right.clear()
+
+    for line in ordered:
+        if line.x0 < gutter < line.x1:
+            flush()
+            out.append((line, 0))
+        elif line.x1 <= gutter:
+            left.append(line)
+        else:
+            right.append(line)
+    flush()
+    return out
+
+
+@dataclass(frozen=True)
+class RawBlock:
+    """A run of lines read as one paragraph, before sections are assigned."""
+
+    lines: tuple[Line, ...]
+    column: int
+
+    @property
+    def page(self) -> int:
+        """The page the block starts on."""
+        return self.lines[0].page
+
+    @property
+    def text(self) -> str:
+        """Line texts joined; a hyphen that splits a lower-case word across lines is removed."""
+        out = ""
+        for line in self.lines:
+            text = line.text
+            if not out:
+                out = text
+            elif re.search(r"[a-z]-$", out) and re.match(r"[a-z]", text):
+                out = out[:-1] + text
+            else:
+                out = out + " " + text
+        return out
+
+    @property
+    def bbox(self) -> tuple[float, float, float, float]:
+        """The box around all its lines."""
+        return (
+            min(ln.x0 for ln in self.lines),
+            min(ln.top for ln in self.lines),
+            max(ln.x1 for ln in self.lines),
+            max(ln.bottom for ln in self.lines),
+        )
+
+    @property
+    def size(self) -> float:
+        """The font size of its first line."""
+        return self.lines[0].size
+
+    @property
+    def bold(self) -> bool:
+        """Whether its first line is bold."""
+        return self.lines[0].bold
+
+
+_STARTS_BLOCK = re.compile(r"^(Table|Fig\.?|Figure)\s+S?\d+", re.IGNORECASE)
+
+
+def lines_to_blocks(ordered: Sequence[tuple[Line, int]], *, body_size: float) -> list[RawBlock]:
+    """Group ordered lines into paragraph blocks.
+
+    A new block starts at a change of column, a vertical gap clearly wider than the line
+    spacing, a change of font size or weight, an indented first line, or a caption start.
+    """
+    blocks: list[RawBlock] = []
+    current: list[Line] = []
+    column = 0
+    for line, col in ordered:
+        if current and not _continues(current, line, col == column, body_size):
+            blocks.append(RawBlock(tuple(current), column))
+            current = []
+        if not current:
+            column = col
+        current.append(line)
+    if current:
+        blocks.append(RawBlock(tuple(current), column))
+    return blocks
+
+
+def _continues(current: list[Line], line: Line, same_column: bool, body_size: float) -> bool:
+    prev = current[-1]
+    if not same_column or line.page != prev.page:
+        return False
+    if _STARTS_BLOCK.match(line.text) or prev.bold != line.bold:
+        return False
+    if abs(line.size - prev.size) > 0.6:
+        return False
+    gap = line.top - prev.bottom
+    size = max(prev.size, 4.0)
+    if len(current) >= 2:
+        usual = current[-1].top - current[-2].bottom
+        if gap > usual + 0.35 * size:
+            return False
+    elif gap > 0.6 * size:
+        return False
+    if gap < -0.5 * size:
+        return False
+    # a first line indented against the block's left edge starts a paragraph
+    left = min(ln.x0 for ln in current)
+    if line.x0 - left > 1.2 * size and line.x1 - line.x0 > 0:
+        return False
+    return not (prev.x0 - line.x0 > 3 * size)

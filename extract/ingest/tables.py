@@ -1,0 +1,446 @@
+"""Tables from page geometry: ruled grids, tables with horizontal rules only, unruled tables.
+
+All three are built from the words and line segments that :mod:`extract.ingest.glyphs` reads:
+
+* **ruled**: horizontal and vertical rules that meet make a grid; a cell with no rule between it
+  and its neighbour spans both, and its text is repeated in every grid column it covers;
+* **rules**: two or more full-width horizontal rules (top, below the header, bottom) and no
+  vertical ones; columns come from the white space shared by the body rows;
+* **unruled**: no rules at all; looked for only right below a "Table N" caption, so that body
+  text is never read as a table.
+
+Units are taken from column headers and row labels ("Body mass (g)", "Glucose, mmol/L").
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Sequence
+from dataclasses import dataclass
+
+from extract.ingest.document import TableCell
+from extract.ingest.glyphs import Segment
+from extract.ingest.words import RawWord
+
+#: Points within which two rules or coordinates count as the same.
+SNAP = 3.0
+#: A cell gap wider than this many font sizes separates two table cells on one line.
+CELL_GAP_EM = 0.9
+
+_UNIT_CHARS = re.compile(r"^[%A-Za-zµμ°Ω/·\^\-−0-9.×\s²³⁻¹]+$")
+_TRAILING_PAREN = re.compile(r"\(([^()]{1,20})\)\s*$")
+_TRAILING_BRACKET = re.compile(r"\[([^\[\]]{1,20})\]\s*$")
+_TRAILING_COMMA = re.compile(r",\s*([^,]{1,15})$")
+_NOT_UNITS = {"n", "no", "yes", "mean", "sd", "sem", "se", "median", "iqr", "range", "ci", "all"}
+
+
+@dataclass(frozen=True)
+class RawTable:
+    """A table found on one page, before captions are linked and pages merged."""
+
+    page: int
+    bbox: tuple[float, float, float, float]
+    rows: tuple[tuple[str, ...], ...]
+    boxes: tuple[tuple[tuple[float, float, float, float] | None, ...], ...]
+    header_rows: int
+    style: str
+
+
+def unit_of(label: str) -> str | None:
+    """The unit written at the end of a header or row label, or ``None``.
+
+    >>> unit_of("Body mass (g)"), unit_of("Glucose, mmol/L"), unit_of("Vehicle (n = 9)")
+    ('g', 'mmol/L', None)
+    """
+    text = " ".join(label.split())
+    for pattern in (_TRAILING_PAREN, _TRAILING_BRACKET, _TRAILING_COMMA):
+        match = pattern.search(text)
+        if match and _looks_like_unit(match.group(1)):
+            return match.group(1).strip()
+    return None
+
+
+def _looks_like_unit(text: str) -> bool:
+    text = text.strip()
+    if not text or "=" in text or len(text) > 15 or not _UNIT_CHARS.match(text):
+        return False
+    if text.lower() in _NOT_UNITS or text.replace(".", "").isdigit():
+        return False
+    if len(text.split()) > 2:
+        return False
+    return any(ch.isalpha() or ch in "%°" for ch in text)
+
+
+def _cluster(values: Sequence[float], tol: float = SNAP) -> list[float]:
+    out: list[list[float]] = []
+    for value in sorted(values):
+        if out and value - out[-1][-1] <= tol:
+            out[-1].append(value)
+        else:
+            out.append([value])
+    return [sum(group) / len(group) for group in out]
+
+
+def _words_in(words: Sequence[RawWord], box: tuple[float, float, float, float]) -> list[RawWord]:
+    x0, top, x1, bottom = box
+    return [
+        w
+        for w in words
+        if x0 <= (w.x0 + w.x1) / 2 <= x1 and top <= (w.top + w.bottom) / 2 <= bottom
+    ]
+
+
+def _text_of(words: Sequence[RawWord]) -> str:
+    if not words:
+        return ""
+    ordered = sorted(words, key=lambda w: (round(w.bottom), w.x0))
+    lines: list[list[RawWord]] = []
+    for word in ordered:
+        if lines and abs(word.bottom - lines[-1][-1].bottom) <= 2.5:
+            lines[-1].append(word)
+        else:
+            lines.append([word])
+    return " ".join(" ".join(w.text for w in sorted(ln, key=lambda w: w.x0)) for ln in lines)
+
+
+# ---------------------------------------------------------------- ruled grids
+
+
+def find_ruled(words: Sequence[RawWord], segments: Sequence[Segment], page: int) -> list[RawTable]:
+    """Grid tables drawn with horizontal and vertical rules."""
+    horizontal = [s for s in segments if s.horizontal and s.x1 - s.x0 > SNAP]
+    vertical = [s for s in segments if not s.horizontal and s.bottom - s.top > SNAP]
+    tables: list[RawTable] = []
+    for group_h, group_v in _connected(horizontal, vertical):
+        xs = _cluster([s.x0 for s in group_v])
+        ys = _cluster([s.top for s in group_h])
+        if len(xs) < 2 or len(ys) < 2:
+            continue
+        tables.append(_grid_table(words, group_h, group_v, xs, ys, page))
+    return tables
+
+
+def _connected(
+    horizontal: list[Segment], vertical: list[Segment]
+) -> list[tuple[list[Segment], list[Segment]]]:
+    """Groups of horizontal and vertical segments that touch one another."""
+    items = [("h", s) for s in horizontal] + [("v", s) for s in vertical]
+    parent = list(range(len(items)))
+
+    def find(i: int) -> int:
+        while parent[i] != i:
+            parent[i] = parent[parent[i]]
+            i = parent[i]
+        return i
+
+    for i, (ki, a) in enumerate(items):
+        if ki != "h":
+            continue
+        for j, (kj, b) in enumerate(items):
+            if kj != "v":
+                continue
+            if a.x0 - SNAP <= b.x0 <= a.x1 + SNAP and b.top - SNAP <= a.top <= b.bottom + SNAP:
+                parent[find(i)] = find(j)
+    groups: dict[int, tuple[list[Segment], list[Segment]]] = {}
+    for i, (kind, seg) in enumerate(items):
+        h, v = groups.setdefault(find(i), ([], []))
+        (h if kind == "h" else v).append(seg)
+    return [g for g in groups.values() if g[0] and g[1]]
+
+
+def _has_vertical(vertical: list[Segment], x: float, top: float, bottom: float) -> bool:
+    mid = (top + bottom) / 2
+    return any(abs(s.x0 - x) <= SNAP and s.top - SNAP <= mid <= s.bottom + SNAP for s in vertical)
+
+
+def _has_horizontal(horizontal: list[Segment], y: float, x0: float, x1: float) -> bool:
+    mid = (x0 + x1) / 2
+    return any(abs(s.top - y) <= SNAP and s.x0 - SNAP <= mid <= s.x1 + SNAP for s in horizontal)
+
+
+def _grid_table(
+    words: Sequence[RawWord],
+    horizontal: list[Segment],
+    vertical: list[Segment],
+    xs: list[float],
+    ys: list[float],
+    page: int,
+) -> RawTable:
+    n_rows, n_cols = len(ys) - 1, len(xs) - 1
+    # owner[r][c] = (r0, c0) of the merged cell covering (r, c)
+    owner: list[list[tuple[int, int]]] = [[(r, c) for c in range(n_cols)] for r in range(n_rows)]
+    for r in range(n_rows):
+        for c in range(n_cols):
+            if c > 0 and not _has_vertical(vertical, xs[c], ys[r], ys[r + 1]):
+                owner[r][c] = owner[r][c - 1]
+            elif r > 0 and not _has_horizontal(horizontal, ys[r], xs[c], xs[c + 1]):
+                owner[r][c] = owner[r - 1][c]
+    spans: dict[tuple[int, int], list[tuple[int, int]]] = {}
+    for r in range(n_rows):
+        for c in range(n_cols):
+            spans.setdefault(owner[r][c], []).append((r, c))
+    texts: dict[tuple[int, int], str] = {}
+    boxes: dict[tuple[int, int], tuple[float, float, float, float]] = {}
+    for key, members in spans.items():
+        r0 = min(m[0] for m in members)
+        r1 = max(m[0] for m in members)
+        c0 = min(m[1] for m in members)
+        c1 = max(m[1] for m in members)
+        box = (xs[c0], ys[r0], xs[c1 + 1], ys[r1 + 1])
+        boxes[key] = box
+        texts[key] = _text_of(_words_in(words, box))
+    rows = tuple(tuple(texts[owner[r][c]] for c in range(n_cols)) for r in range(n_rows))
+    cell_boxes = tuple(tuple(boxes[owner[r][c]] for c in range(n_cols)) for r in range(n_rows))
+    header = _header_rows_from_spans(owner, n_rows, n_cols, rows)
+    return RawTable(page, (xs[0], ys[0], xs[-1], ys[-1]), rows, cell_boxes, header, "ruled")
+
+
+def _header_rows_from_spans(
+    owner: list[list[tuple[int, int]]], n_rows: int, n_cols: int, rows: tuple[tuple[str, ...], ...]
+) -> int:
+    """Header rows: the first row, plus following rows while a row above spans columns."""
+    header = 1
+    for r in range(n_rows - 1):
+        spans_cols = any(owner[r][c] == owner[r][c - 1] for c in range(1, n_cols))
+        spans_rows = any(owner[r + 1][c] == owner[r][c] for c in range(n_cols))
+        if (spans_cols or spans_rows) and r + 1 < n_rows - 1 and r + 1 == header:
+            if not _is_data_row(rows[r + 1]):
+                header = r + 2
+    return header
+
+
+_NUMERIC = re.compile(r"[-−+]?\d")
+
+
+def _is_data_row(row: Sequence[str]) -> bool:
+    cells = [c for c in row[1:] if c.strip()]
+    return bool(cells) and sum(1 for c in cells if _NUMERIC.search(c)) * 2 >= len(cells)
+
+
+# ------------------------------------------------- rules-only and unruled tables
+
+
+def find_rules_only(
+    words: Sequence[RawWord],
+    segments: Sequence[Segment],
+    page: int,
+    *,
+    taken: Sequence[tuple[float, float, float, float]] = (),
+) -> list[RawTable]:
+    """Tables set between full-width horizontal rules with no vertical rules."""
+    rules = sorted(
+        (s for s in segments if s.horizontal and s.x1 - s.x0 > 40),
+        key=lambda s: s.top,
+    )
+    rules = [s for s in rules if not any(_inside(s, box) for box in taken)]
+    tables: list[RawTable] = []
+    used: set[int] = set()
+    for i, first in enumerate(rules):
+        if i in used:
+            continue
+        same = [
+            j
+            for j, s in enumerate(rules)
+            if j >= i and abs(s.x0 - first.x0) <= 6 and abs(s.x1 - first.x1) <= 6
+        ]
+        if len(same) < 2:
+            continue
+        # one table: from the first rule to the last matching rule before a wide empty gap
+        members = [same[0]]
+        for j in same[1:]:
+            gap_words = _words_in(words, (first.x0, rules[members[-1]].top, first.x1, rules[j].top))
+            if not gap_words:
+                break
+            members.append(j)
+        if len(members) < 2:
+            continue
+        used.update(members)
+        top, bottom = rules[members[0]].top, rules[members[-1]].top
+        inner = [rules[j].top for j in members[1:-1]]
+        header_bottom = inner[0] if inner else None
+        box = (first.x0, top, first.x1, bottom)
+        table = _table_from_text(words, box, page, style="rules", header_bottom=header_bottom)
+        if table is not None:
+            tables.append(table)
+    return tables
+
+
+def _inside(seg: Segment, box: tuple[float, float, float, float]) -> bool:
+    return (
+        box[0] - SNAP <= seg.x0
+        and seg.x1 <= box[2] + SNAP
+        and box[1] - SNAP <= seg.top <= box[3] + SNAP
+    )
+
+
+def find_unruled(
+    words: Sequence[RawWord],
+    page: int,
+    *,
+    caption_bottom: float,
+    x0: float,
+    x1: float,
+    limit: float,
+) -> RawTable | None:
+    """An unruled table right below a caption that ends at ``caption_bottom``.
+
+    Rows are read while lines split into two or more cells; the table ends at the first line
+    that reads as prose (one wide run of text) or at a gap of more than two line heights.
+    """
+    region = [
+        w
+        for w in words
+        if w.top >= caption_bottom - 1 and w.bottom <= limit and w.x0 >= x0 - 2 and w.x1 <= x1 + 2
+    ]
+    lines = _rows_of(region)
+    taken: list[list[RawWord]] = []
+    last_bottom = caption_bottom
+    for line in lines:
+        cells = _cells_of(line)
+        size = max(w.size for w in line)
+        if line[0].top - last_bottom > 2.2 * size and taken:
+            break
+        if len(cells) < 2 and (not taken or _wide(line, x0, x1)):
+            if taken:
+                break
+            continue
+        taken.append(line)
+        last_bottom = max(w.bottom for w in line)
+    if len(taken) < 2:
+        return None
+    flat = [w for line in taken for w in line]
+    box = (
+        min(w.x0 for w in flat),
+        min(w.top for w in flat),
+        max(w.x1 for w in flat),
+        max(w.bottom for w in flat),
+    )
+    return _table_from_text(flat, box, page, style="unruled", header_bottom=None)
+
+
+def _wide(line: list[RawWord], x0: float, x1: float) -> bool:
+    return (max(w.x1 for w in line) - min(w.x0 for w in line)) > 0.6 * (x1 - x0) and len(line) > 6
+
+
+def _rows_of(words: Sequence[RawWord]) -> list[list[RawWord]]:
+    rows: list[list[RawWord]] = []
+    for word in sorted(words, key=lambda w: (w.bottom, w.x0)):
+        if rows and abs(word.bottom - rows[-1][-1].bottom) <= max(2.0, 0.4 * word.size):
+            rows[-1].append(word)
+        else:
+            rows.append([word])
+    return [sorted(row, key=lambda w: w.x0) for row in rows]
+
+
+def _cells_of(row: list[RawWord]) -> list[list[RawWord]]:
+    cells: list[list[RawWord]] = [[row[0]]]
+    for word in row[1:]:
+        prev = cells[-1][-1]
+        if word.x0 - prev.x1 > CELL_GAP_EM * max(prev.size, 4.0):
+            cells.append([word])
+        else:
+            cells[-1].append(word)
+    return cells
+
+
+def _table_from_text(
+    words: Sequence[RawWord],
+    box: tuple[float, float, float, float],
+    page: int,
+    *,
+    style: str,
+    header_bottom: float | None,
+) -> RawTable | None:
+    inside = _words_in(words, box)
+    rows = _rows_of(inside)
+    if len(rows) < 2:
+        return None
+    n_header = (
+        sum(1 for row in rows if max(w.bottom for w in row) <= header_bottom + 1)
+        if header_bottom is not None
+        else 0
+    )
+    cell_rows = [_cells_of(row) for row in rows]
+    body = cell_rows[n_header:] if 0 < n_header < len(rows) else cell_rows
+    bounds = _column_bounds([c for row in body for c in row])
+    if len(bounds) < 2:
+        return None
+    if header_bottom is None:
+        n_header = _guess_header(cell_rows, bounds)
+    grid: list[tuple[str, ...]] = []
+    boxes: list[tuple[tuple[float, float, float, float] | None, ...]] = []
+    for cells in cell_rows:
+        texts = [""] * len(bounds)
+        cboxes: list[tuple[float, float, float, float] | None] = [None] * len(bounds)
+        for cell in cells:
+            cx0 = min(w.x0 for w in cell)
+            cx1 = max(w.x1 for w in cell)
+            cols = [i for i, (b0, b1) in enumerate(bounds) if cx0 < b1 and cx1 > b0]
+            if not cols:
+                centre = (cx0 + cx1) / 2
+                cols = [min(range(len(bounds)), key=lambda i: abs(sum(bounds[i]) / 2 - centre))]
+            text = " ".join(w.text for w in cell)
+            cbox = (cx0, min(w.top for w in cell), cx1, max(w.bottom for w in cell))
+            for col in cols:
+                texts[col] = (texts[col] + " " + text).strip() if texts[col] else text
+                cboxes[col] = cbox
+        grid.append(tuple(texts))
+        boxes.append(tuple(cboxes))
+    grid, boxes = _merge_wrapped_labels(grid, boxes, n_header)
+    return RawTable(page, box, tuple(grid), tuple(boxes), n_header, style)
+
+
+def _column_bounds(cells: list[list[RawWord]]) -> list[tuple[float, float]]:
+    spans = sorted((min(w.x0 for w in c), max(w.x1 for w in c)) for c in cells)
+    merged: list[list[float]] = []
+    for x0, x1 in spans:
+        if merged and x0 <= merged[-1][1] + 1:
+            merged[-1][1] = max(merged[-1][1], x1)
+        else:
+            merged.append([x0, x1])
+    return [(a, b) for a, b in merged]
+
+
+def _guess_header(cell_rows: list[list[list[RawWord]]], bounds: list[tuple[float, float]]) -> int:
+    for i, cells in enumerate(cell_rows):
+        texts = [" ".join(w.text for w in c) for c in cells]
+        if len(texts) >= 2 and _is_data_row(texts):
+            return max(i, 1) if i < len(cell_rows) else 1
+    return 1
+
+
+def _merge_wrapped_labels(
+    grid: list[tuple[str, ...]],
+    boxes: list[tuple[tuple[float, float, float, float] | None, ...]],
+    n_header: int,
+) -> tuple[list[tuple[str, ...]], list[tuple[tuple[float, float, float, float] | None, ...]]]:
+    """Join a body row that holds only a label to the next row when that row has no label."""
+    out: list[tuple[str, ...]] = list(grid[:n_header])
+    out_boxes = list(boxes[:n_header])
+    i = n_header
+    while i < len(grid):
+        row = grid[i]
+        if (
+            i + 1 < len(grid)
+            and row[0]
+            and not any(row[1:])
+            and not grid[i + 1][0]
+            and any(grid[i + 1][1:])
+        ):
+            out.append((row[0],) + grid[i + 1][1:])
+            out_boxes.append((boxes[i][0],) + boxes[i + 1][1:])
+            i += 2
+            continue
+        out.append(row)
+        out_boxes.append(boxes[i])
+        i += 1
+    return out, out_boxes
+
+
+def raw_to_cells(table: RawTable) -> tuple[TableCell, ...]:
+    """The full grid of a raw table as Document cells."""
+    return tuple(
+        TableCell(r, c, text, table.boxes[r][c] if table.boxes else None, table.page)
+        for r, row in enumerate(table.rows)
+        for c, text in enumerate(row)
+    )
