@@ -177,9 +177,13 @@ class _Builder:
                 heading=heading,
                 label=group_label,
             )
-            for child in element:
-                if localname(child) == "table-wrap":
-                    self.table_wrap(child, section, heading, group_label=group_label)
+            wraps = [c for c in element if localname(c) == "table-wrap"]
+            for i, child in enumerate(wraps):
+                letter = chr(ord("A") + i) if i < 26 else f".{i + 1}"
+                fallback = (
+                    f"{group_label}{letter}" if group_label and len(wraps) > 1 else group_label
+                )
+                self.table_wrap(child, section, heading, group_label=fallback)
         elif tag == "supplementary-material":
             self.add(
                 "caption",
@@ -208,6 +212,9 @@ class _Builder:
         self.n_table_wraps += 1
         label = label_text(wrap) or group_label or f"Table {self.n_table_wraps}"
         caption = caption_text(wrap)
+        parent = wrap.getparent()
+        if not caption and parent is not None and localname(parent) == "table-wrap-group":
+            caption = caption_text(parent)
         self.add("caption", caption, section, wrap, heading=heading, label=label)
         table = table_from_wrap(
             wrap, label=label, caption=caption, section=section, ref=self.ref(wrap)

@@ -18,7 +18,7 @@ TITLE_PATTERNS: tuple[tuple[str, re.Pattern[str]], ...] = (
         re.compile(
             r"\bmethods?\b|\bmethodology\b|\bmaterials?\b|\bexperimental\b|\bprocedures\b"
             r"|\bstatistical analys[ie]s\b|^statistics$|\bstudy design\b|\bstudy population\b"
-            r"|^(patients|subjects|participants)\b"
+            r"|^(patients|subjects)\b"
         ),
     ),
     ("results", re.compile(r"\bresults?\b|\bfindings\b")),
