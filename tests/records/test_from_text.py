@@ -1,0 +1,104 @@
+"""Sentences to drafts: which numbers are data points, and what links to them."""
+
+from __future__ import annotations
+
+import pytest
+
+from extract.records.assemble import first_pass
+from extract.records.from_text import split_sentences
+from tests.records._build import make_document
+
+RESULTS = (
+    "At week 8, serum creatinine was 0.42 ± 0.06 mg/dL in the vehicle group (n = 9) and "
+    "0.31 ± 0.05 mg/dL in the talvorin group (n = 8; P < 0.01; Fig. 2). "
+    "Grip strength of quorvalin-treated mice was 98.2 (SD 9.1) gf."
+)
+
+
+@pytest.fixture(scope="module")
+def proposals():
+    document = make_document(
+        [
+            ("methods", "Male Tallow-Creek mice aged 8 weeks received talvorin at 10 mg/kg daily."),
+            ("methods", "Data are mean ± SEM; n = 7 per group. Analyses used software from 2019."),
+            ("results", RESULTS),
+        ]
+    )
+    return first_pass(document)
+
+
+def test_only_measures_become_proposals(proposals) -> None:
+    # Doses (10 mg/kg), ages (8 weeks), sample sizes (n = 9), p-values, years, figure numbers
+    # are context, not data points (proposal record contract, DESIGN.md).
+    assert [p.value for p in proposals] == [0.42, 0.31, 98.2]
+
+
+def test_outcome_group_and_n_from_the_sentence(proposals) -> None:
+    first, second, third = proposals
+    assert (first.outcome, first.group, first.n) == ("serum creatinine", "vehicle", 9)
+    assert (second.outcome, second.group, second.n) == ("serum creatinine", "talvorin", 8)
+    assert (third.outcome, third.group) == ("grip strength", "quorvalin")
+
+
+def test_kind_beside_value_beats_methods_statement(proposals) -> None:
+    assert proposals[2].dispersion is not None and proposals[2].dispersion.kind == "SD"
+    assert proposals[0].dispersion is not None and proposals[0].dispersion.kind == "SEM"
+    assert "dispersion_from_methods" in proposals[0].flags
+
+
+def test_methods_n_is_the_fallback_and_flagged(proposals) -> None:
+    third = proposals[2]
+    assert third.n == 7 and "n_from_methods" in third.flags
+    assert "n_from_methods" not in proposals[0].flags
+
+
+def test_time_point_and_text_source(proposals) -> None:
+    first = proposals[0]
+    assert first.time_point == "week 8"
+    assert first.source.kind == "text" and first.source.section == "results"
+    assert first.source.quote.startswith("At week 8, serum creatinine")
+    assert first.source.page == 1 and first.source.bbox is not None
+
+
+def test_sd_derived_from_methods_sem(proposals) -> None:
+    # SD = SEM × √n (Cochrane Handbook 6.5.2.2): 0.06 × √9 = 0.18.
+    assert proposals[0].sd == pytest.approx(0.18)
+
+
+def test_legend_statement_applies_to_its_values() -> None:
+    document = make_document(
+        [
+            (
+                "legends",
+                "Figure 1. Liver mass was 1.24 ± 0.11 g in vehicle mice. Values are mean ± SD; "
+                "n = 5 per group.",
+            )
+        ]
+    )
+    (proposal,) = first_pass(document)
+    assert proposal.dispersion is not None and proposal.dispersion.kind == "SD"
+    assert proposal.n == 5 and "n_from_methods" not in proposal.flags
+
+
+def test_unknown_kind_is_assumed_and_flagged() -> None:
+    document = make_document([("results", "Liver mass was 1.24 (0.11) g in vehicle mice.")])
+    (proposal,) = first_pass(document)
+    assert proposal.dispersion is not None and proposal.dispersion.kind == "SD"
+    assert "dispersion_kind_assumed" in proposal.flags
+    assert proposal.confidence < 0.9
+
+
+def test_sections_without_data_are_skipped() -> None:
+    document = make_document(
+        [("introduction", "Earlier work reported 12.5 ± 2.0 mg/dL in untreated animals.")]
+    )
+    assert first_pass(document) == []
+
+
+def test_split_sentences_keeps_abbreviations() -> None:
+    text = "Values are shown in Fig. 2. Mass was 1.2 g vs. 1.4 g. Done."
+    assert [s for _, s in split_sentences(text)] == [
+        "Values are shown in Fig. 2.",
+        "Mass was 1.2 g vs. 1.4 g.",
+        "Done.",
+    ]
