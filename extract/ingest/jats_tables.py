@@ -27,6 +27,7 @@ from lxml import etree
 
 from extract.ingest.document import Table, TableCell
 from extract.ingest.jats_text import element_text, localname
+from extract.ingest.tables import unit_of
 
 logger = logging.getLogger(__name__)
 
@@ -138,7 +139,7 @@ _UNIT_SEPARATORS = re.compile(r"\s*[/·⋅]\s*|\s+")
 _NOT_UNITS = frozenset(
     {"n", "N", "no", "No", "no.", "No.", "SD", "SEM", "SE", "CI", "OR", "HR", "RR", "vs", "range"}
 )
-_TRAILING_GROUP = re.compile(r"[(\[]([^()\[\]]+)[)\]]\s*$")
+_LEADING_WORD = re.compile(r"^(?:in|as)\s+")
 
 
 def _is_unit_atom(atom: str) -> bool:
@@ -173,9 +174,11 @@ def is_unit(text: str) -> bool:
 def unit_from_label(label: str) -> str | None:
     """The unit stated in a column header or row label, as written, or ``None``.
 
-    Common practice in tables: the unit follows the quantity in parentheses or brackets
-    ("Body mass (g)", "Glucose [mmol/L]"), after the last comma ("Glucose, mmol/L"), or stands
-    alone in its own header cell ("mg/dL", "(mg/dL)"). "in months" reads as "months".
+    Where the unit sits is the PDF reader's rule, shared through
+    :func:`extract.ingest.tables.unit_of` (common practice: "Body mass (g)", "Glucose [mmol/L]",
+    "Glucose, mmol/L"); a header cell holding nothing but a unit ("mg/dL", "(mg/dL)") counts
+    too, and "in months" reads as "months". The candidate must then read as a unit
+    (:func:`is_unit`), so "Basal (2F/6M)", "Sex (m/f)" or "Hazard ratio (HR)" state none.
 
     Args:
         label: the header or row-label text.
@@ -183,22 +186,12 @@ def unit_from_label(label: str) -> str | None:
     Returns:
         The unit string as written (e.g. "mg/dL"), or ``None`` when the label states none.
     """
-    label = label.strip()
-    if not label:
-        return None
-    candidates: list[str] = []
-    group = _TRAILING_GROUP.search(label)
-    if group:
-        candidates.append(group.group(1))
-    if "," in label:
-        candidates.append(label.rsplit(",", 1)[1])
-    candidates.append(label)
-    for candidate in candidates:
-        candidate = candidate.strip()
-        candidate = re.sub(r"^(?:in|as)\s+", "", candidate)
-        if is_unit(candidate):
-            return candidate
-    return None
+    label = " ".join(label.split())
+    candidate = unit_of(label)
+    if candidate is None:
+        candidate = label.removeprefix("(").removesuffix(")").removeprefix("[").removesuffix("]")
+    candidate = _LEADING_WORD.sub("", candidate.strip())
+    return candidate if is_unit(candidate) else None
 
 
 # --- grid expansion --------------------------------------------------------------------------
