@@ -91,6 +91,8 @@ def test_articles_count_states(filled: Store) -> None:
     filled.record_decision(states[0].id, curator="ana", action="accept")
     filled.record_decision(states[1].id, curator="ana", action="reject", reason="duplicate")
     filled.record_decision(states[2].id, curator="ana", action="edit", after={"value": 0.43})
+    filled.record_decision(states[3].id, curator="ana", action="skip")
+    filled.undo_last("ana")  # the skip no longer counts: pending again
     (summary,) = filled.articles()
     assert summary.counts() == {
         "pending": 1, "accepted": 1, "edited": 1, "rejected": 1, "added": 0, "skipped": 0,
@@ -172,3 +174,13 @@ def test_model_versions_are_recorded(store: Store) -> None:
     assert store.model_versions()[0].metrics == {"f1": 0.8}
     with pytest.raises(StoreError, match="already recorded"):
         store.record_model_version("quantities.model", "0.1")
+
+
+def test_migrations_are_named_recorded_and_run_once(tmp_path: Path) -> None:
+    from extract.store.migrations import MIGRATIONS, applied_migrations, migrate
+
+    with open_store(tmp_path / "m.sqlite") as first:
+        assert applied_migrations(first.engine) == [m.name for m in MIGRATIONS]
+        assert migrate(first.engine) == []  # nothing left to apply
+    with open_store(tmp_path / "m.sqlite") as again:
+        assert applied_migrations(again.engine) == [m.name for m in MIGRATIONS]
