@@ -1,0 +1,423 @@
+"""Context around a value: time point, method, subject, intervention, outcome, groups.
+
+Rules plus the lexicons in ``extract/nlp/lexicons/`` (plain text, one entry a line, each file's
+header says what it holds); nothing is downloaded. Each mention is a :class:`ContextMention`
+with its kind, the exact text, a tidy ``value`` ("at week 8" -> "week 8") and offsets.
+
+:func:`find_outcome` names the measured thing a value belongs to: "Serum creatinine was
+0.42 ± 0.05 mg/dL" -> "serum creatinine".
+"""
+
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass
+from functools import lru_cache
+from pathlib import Path
+
+from extract.nlp.tokenizer import normalize_text
+
+__all__ = [
+    "CONTEXT_KINDS",
+    "LEXICON_DIR",
+    "ContextMention",
+    "SentenceContext",
+    "find_context",
+    "find_outcome",
+    "load_lexicon",
+    "summarize_context",
+]
+
+#: Kinds of context mention.
+CONTEXT_KINDS: tuple[str, ...] = (
+    "time_point",
+    "method",
+    "subject",
+    "intervention",
+    "outcome",
+    "group",
+)
+#: Folder of the lexicon files.
+LEXICON_DIR = Path(__file__).with_name("lexicons")
+
+
+@dataclass(frozen=True)
+class ContextMention:
+    """One context mention.
+
+    Attributes:
+        kind: one of :data:`CONTEXT_KINDS`.
+        text: the exact text ``text[start:end]``.
+        value: the tidy form ("week 8", "ELISA", "male 8-week-old mice", "vehicle").
+        start: character offset in the text given.
+        end: offset just past it.
+    """
+
+    kind: str
+    text: str
+    value: str
+    start: int
+    end: int
+
+
+@dataclass(frozen=True)
+class SentenceContext:
+    """The context of one sentence, one value per field (the first mention of each kind)."""
+
+    time_point: str | None = None
+    method: str | None = None
+    subject: str | None = None
+    intervention: str | None = None
+    outcome: str | None = None
+    groups: tuple[str, ...] = ()
+
+
+@lru_cache(maxsize=16)
+def load_lexicon(name: str) -> tuple[str, ...]:
+    """Entries of ``lexicons/<name>.txt`` (comments and blank lines dropped), longest first."""
+    path = LEXICON_DIR / f"{name}.txt"
+    entries = []
+    for line in path.read_text(encoding="utf-8").splitlines():
+        entry = line.strip()
+        if entry and not entry.startswith("#"):
+            entries.append(entry)
+    return tuple(sorted(set(entries), key=len, reverse=True))
+
+
+@lru_cache(maxsize=16)
+def _lexicon_regex(name: str) -> re.Pattern[str]:
+    alternatives = "|".join(re.escape(entry) for entry in load_lexicon(name))
+    return re.compile(rf"(?<![\w-])(?:{alternatives})(?![\w-])", re.I)
+
+
+_TIME_UNIT = r"(?:h|hrs?|hours?|min|minutes?|days?|d|weeks?|wks?|months?|years?)"
+_TIME_PATTERNS: tuple[tuple[re.Pattern[str], str], ...] = (
+    (re.compile(r"\b(week|day|month|year|hour|visit|wk)\s*(\d+)\b", re.I), "unit_number"),
+    (
+        re.compile(
+            rf"\b(\d+(?:\.\d+)?)\s*(?:-\s*)?({_TIME_UNIT})\s+(?:after|post|following|of)\s+"
+            r"([\w-]+(?:\s+[\w-]+)?)",
+            re.I,
+        ),
+        "after_event",
+    ),
+    (
+        re.compile(rf"\b(?:after|at|within|over|for)\s+(\d+(?:\.\d+)?)\s*({_TIME_UNIT})\b", re.I),
+        "after",
+    ),
+    (
+        re.compile(
+            r"\b(baseline|pre-?treatment|post-?treatment|end of (?:the )?(?:study|treatment))\b",
+            re.I,
+        ),
+        "word",
+    ),
+)
+_TIME_UNIT_NAMES = {
+    "h": "h",
+    "hr": "h",
+    "hrs": "h",
+    "hour": "h",
+    "hours": "h",
+    "min": "min",
+    "minute": "min",
+    "minutes": "min",
+    "d": "days",
+    "day": "days",
+    "days": "days",
+    "wk": "weeks",
+    "wks": "weeks",
+    "week": "weeks",
+    "weeks": "weeks",
+    "month": "months",
+    "months": "months",
+    "year": "years",
+    "years": "years",
+}
+_METHOD_PHRASE = re.compile(
+    r"\b(?:by|using|with|via|on)\s+(?:an?\s+|the\s+)?((?:[\w-]+\s+){0,3}?"
+    r"(?:assay|kit|method|analy[sz]er|cytometry|spectrometry|chromatography|microscopy|"
+    r"blot(?:ting)?|PCR|ELISA|plethysmography|telemetry|meter))\b",
+    re.I,
+)
+_SUBJECT_MODIFIERS = re.compile(
+    r"((?:(?:male|female|adult|juvenile|aged|young|old|healthy|obese|lean|pregnant|wild-type|"
+    r"transgenic|knockout|\d+-(?:day|week|month|year)-old|[A-Z][A-Za-z0-9]*[0-9][A-Za-z0-9/-]*|"
+    r"[A-Z]{2,}[\w/-]*)\s+){1,4})$"
+)
+_SUBJECT_AGE_AFTER = re.compile(
+    r"^\s*,?\s*(?:aged\s+\d+(?:\s*(?:–|-|to)\s*\d+)?\s*(?:days?|weeks?|months?|years?)(?:\s+old)?|"
+    r"\(\s*\d+(?:\s*(?:–|-|to)\s*\d+)?\s*(?:days?|weeks?|months?|years?)(?:\s+old)?\s*\))",
+    re.I,
+)
+_DOSE = r"\d+(?:\.\d+)?\s*(?:mg|µg|μg|ug|ng|g|mL|µL|IU|U|nmol|µmol|μmol|mmol|mM|µM|μM|nM)(?:\s*/\s*kg)?(?:\s*/\s*(?:day|d))?"
+_INTERVENTION_PATTERNS: tuple[re.Pattern[str], ...] = (
+    re.compile(
+        r"\b(?:treated with|received|receiving|administered|given|dosed with|injected with|"
+        r"infused with|fed)\s+(?:an?\s+|the\s+)?((?:"
+        + _DOSE
+        + r")\s+(?:of\s+)?[A-Z][\w-]*(?:\s+[A-Z0-9][\w-]*)?)",
+    ),
+    re.compile(
+        r"\b(?:treated with|received|receiving|administered|given|dosed with|injected with|"
+        r"infused with)\s+(?:an?\s+|the\s+)?([A-Z][\w-]*(?:\s+[A-Z0-9][\w-]*)?"
+        r"(?:\s*\(\s*" + _DOSE + r"[^)]*\)|\s*(?:at\s+)?" + _DOSE + r")?)",
+    ),
+    re.compile(r"\b(vehicle|placebo|saline)\b", re.I),
+)
+_GROUP_PATTERNS: tuple[re.Pattern[str], ...] = (
+    re.compile(
+        r"\b(?:in|of|for|to|from|the)\s+(?:the\s+)?([\w/.+-]+(?:\s+[\w/.+-]+){0,4}?)\s+(?:group|arm|cohort)s?\b",
+        re.I,
+    ),
+    re.compile(r"\b([A-Za-z][\w]*(?:\s+[A-Z0-9][\w]*)?)-treated\b"),
+    re.compile(
+        r"\b(?:vs\.?|versus|compared (?:with|to))\s+(?:the\s+)?([\w-]+(?:\s+[\w-]+)?)\s*(?:group|arm|mice|rats|animals|patients)?",
+        re.I,
+    ),
+)
+_GROUP_NOT = frozenset(
+    {
+        "each",
+        "every",
+        "per",
+        "treatment",
+        "experimental",
+        "both",
+        "all",
+        "two",
+        "three",
+        "same",
+        "other",
+    }
+)
+
+# Outcome: "<outcome> was/were/of/reached ... <value>"
+_LINK = (
+    r"(?:was|were|is|are|averaged|reached|measured|remained|amounted to|totalled|totaled|"
+    r"(?:increased|decreased|rose|fell|dropped|declined|changed|improved|recovered)(?:\s+(?:from\s+[^,;]{1,30}\s+)?to)?|"
+    r"of|at|:|=|\()"
+)
+_OUTCOME_BEFORE = re.compile(
+    rf"([A-Za-z][\w/()-]*(?:\s+[\w/()-]+){{0,5}}?)\s*(?:\s(?:in|of)\s+[^,;]{{1,40}}?)?\s+{_LINK}\s*"
+    r"(?:(?:approximately|about|only|nearly|a mean of|a median of|mean|median)\s+)?[^\w]*$",
+    re.I,
+)
+_OUTCOME_LEADING = re.compile(
+    r"^(?:the|a|an|in|and|while|whereas|but|however|overall|both|mean|median|average|"
+    r"baseline|final|total|its|their)\s+",
+    re.I,
+)
+_CLAUSE_CUT = re.compile(
+    r"[;:]|,\s|\band\b|\bwhile\b|\bwhereas\b|\bbut\b|\bvs\.?|\bversus\b|\bthan\b", re.I
+)
+_NOT_OUTCOMES = frozenset(
+    "it this that these those they values data results mice rats animals patients group groups"
+    " value level levels there which".split()
+)
+
+
+def _time_value(match: re.Match[str], how: str) -> str:
+    if how == "unit_number":
+        unit = match.group(1).lower()
+        unit = "week" if unit == "wk" else unit
+        return f"{unit} {match.group(2)}"
+    if how == "after_event":
+        unit = _TIME_UNIT_NAMES.get(match.group(2).lower(), match.group(2))
+        return f"{match.group(1)} {unit} after {match.group(3).lower()}"
+    if how == "after":
+        unit = _TIME_UNIT_NAMES.get(match.group(2).lower(), match.group(2))
+        if unit in ("days", "weeks", "months", "years") and match.group(1) == "1":
+            unit = unit[:-1]
+        return f"{match.group(1)} {unit}"
+    return (
+        match.group(1)
+        .lower()
+        .replace("pretreatment", "pre-treatment")
+        .replace("posttreatment", "post-treatment")
+    )
+
+
+def _find_times(text: str, norm: str) -> list[ContextMention]:
+    found: list[ContextMention] = []
+    for pattern, how in _TIME_PATTERNS:
+        for match in pattern.finditer(norm):
+            if any(m.start < match.end() and match.start() < m.end for m in found):
+                continue
+            found.append(
+                ContextMention(
+                    "time_point",
+                    text[match.start() : match.end()],
+                    _time_value(match, how),
+                    match.start(),
+                    match.end(),
+                )
+            )
+    return found
+
+
+def _find_methods(text: str, norm: str) -> list[ContextMention]:
+    found = [
+        ContextMention("method", text[m.start() : m.end()], m.group(0), m.start(), m.end())
+        for m in _lexicon_regex("methods").finditer(norm)
+    ]
+    for match in _METHOD_PHRASE.finditer(norm):
+        start, end = match.start(1), match.end(1)
+        if any(m.start < end and start < m.end for m in found):
+            continue
+        found.append(ContextMention("method", text[start:end], match.group(1), start, end))
+    return found
+
+
+def _find_subjects(text: str, norm: str) -> list[ContextMention]:
+    found = []
+    for match in _lexicon_regex("subjects").finditer(norm):
+        start, end = match.start(), match.end()
+        modifiers = _SUBJECT_MODIFIERS.search(norm[max(0, start - 80) : start])
+        if modifiers:
+            start -= len(modifiers.group(1))
+        age = _SUBJECT_AGE_AFTER.match(norm[end : end + 40])
+        if age:
+            end += age.end()
+        if any(m.start < end and start < m.end for m in found):
+            continue
+        found.append(
+            ContextMention(
+                "subject", text[start:end], " ".join(text[start:end].split()), start, end
+            )
+        )
+    return found
+
+
+def _find_interventions(text: str, norm: str) -> list[ContextMention]:
+    found: list[ContextMention] = []
+    for pattern in _INTERVENTION_PATTERNS:
+        for match in pattern.finditer(norm):
+            start, end = match.start(1), match.end(1)
+            if any(m.start < end and start < m.end for m in found):
+                continue
+            value = " ".join(text[start:end].split())
+            found.append(ContextMention("intervention", text[start:end], value, start, end))
+    return found
+
+
+def _find_groups(text: str, norm: str) -> list[ContextMention]:
+    found: list[ContextMention] = []
+    for pattern in _GROUP_PATTERNS:
+        for match in pattern.finditer(norm):
+            start, end = match.start(1), match.end(1)
+            value = " ".join(text[start:end].split())
+            if value.lower() in _GROUP_NOT or value.split()[0].lower() in _GROUP_NOT:
+                continue
+            if any(m.start < end and start < m.end for m in found):
+                continue
+            found.append(ContextMention("group", text[start:end], value, start, end))
+    return found
+
+
+def find_outcome(text: str, start: int) -> ContextMention | None:
+    """The outcome (measured thing) a value at ``start`` belongs to.
+
+    Reads the clause before the value: "Serum creatinine was 0.42 ± 0.05 mg/dL" ->
+    "serum creatinine"; "body mass of 24.1 g" -> "body mass"; "Heart rate: 412 bpm" ->
+    "heart rate". Falls back to the last outcome named in the lexicon before the value.
+
+    Args:
+        text: the sentence.
+        start: character offset of the value in ``text``.
+
+    Returns:
+        A mention of kind "outcome" (``value`` lowercased except for acronyms) or None.
+    """
+    norm = normalize_text(text)
+    head = norm[:start]
+    cuts = list(_CLAUSE_CUT.finditer(head))
+    clause_start = 0
+    for cut in reversed(cuts):
+        if _OUTCOME_BEFORE.search(head[cut.end() :]):
+            clause_start = cut.end()
+            break
+    clause = head[clause_start:]
+    match = _OUTCOME_BEFORE.search(clause)
+    if match:
+        phrase = match.group(1)
+        offset = clause_start + match.start(1)
+        trimmed = phrase
+        while True:
+            lead = _OUTCOME_LEADING.match(trimmed)
+            if not lead:
+                break
+            offset += lead.end()
+            trimmed = trimmed[lead.end() :]
+        trimmed = re.sub(r"\s*\([^)]*$", "", trimmed).strip()
+        words = trimmed.split()
+        if words and trimmed.lower() not in _NOT_OUTCOMES and not words[0][0].isdigit():
+            lexicon_hit = _lexicon_regex("outcomes").search(norm, offset, offset + len(trimmed))
+            if lexicon_hit is None and len(words) > 4:
+                words = words[-4:]
+                trimmed = " ".join(words)
+                offset = norm.index(trimmed, offset)
+            end = offset + len(trimmed)
+            return ContextMention(
+                "outcome", text[offset:end], _tidy_outcome(text[offset:end]), offset, end
+            )
+    hits = [m for m in _lexicon_regex("outcomes").finditer(norm) if m.end() <= start]
+    if hits:
+        hit = hits[-1]
+        return ContextMention(
+            "outcome",
+            text[hit.start() : hit.end()],
+            _tidy_outcome(hit.group(0)),
+            hit.start(),
+            hit.end(),
+        )
+    return None
+
+
+def _tidy_outcome(phrase: str) -> str:
+    words = phrase.split()
+    return " ".join(w if (w.isupper() or any(c.isdigit() for c in w)) else w.lower() for w in words)
+
+
+def find_context(text: str) -> list[ContextMention]:
+    """Every context mention in a sentence or legend: time points, methods, subjects,
+    interventions, groups (outcomes come from :func:`find_outcome`, per value).
+
+    Args:
+        text: a sentence, paragraph, legend or header.
+
+    Returns:
+        Mentions sorted by offset.
+    """
+    norm = normalize_text(text)
+    found = (
+        _find_times(text, norm)
+        + _find_methods(text, norm)
+        + _find_subjects(text, norm)
+        + _find_interventions(text, norm)
+        + _find_groups(text, norm)
+    )
+    found.sort(key=lambda m: (m.start, m.kind))
+    return found
+
+
+def summarize_context(
+    mentions: list[ContextMention], *, outcome: str | None = None
+) -> SentenceContext:
+    """One value per kind from a list of mentions (the first of each kind; all groups)."""
+    first: dict[str, str] = {}
+    groups: list[str] = []
+    for mention in mentions:
+        if mention.kind == "group":
+            if mention.value not in groups:
+                groups.append(mention.value)
+        else:
+            first.setdefault(mention.kind, mention.value)
+    return SentenceContext(
+        time_point=first.get("time_point"),
+        method=first.get("method"),
+        subject=first.get("subject"),
+        intervention=first.get("intervention"),
+        outcome=outcome if outcome is not None else first.get("outcome"),
+        groups=tuple(groups),
+    )
