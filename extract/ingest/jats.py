@@ -48,6 +48,11 @@ OTHER_ABSTRACT_TYPES = frozenset(
     }
 )
 
+#: Children of a container that are read by their owner or hold no text to read.
+SKIPPED = frozenset(
+    {"", "title", "label", "caption", "object-id", "sec-meta", "disp-formula", "graphic", "media"}
+)
+
 _PROLOG = re.compile(
     rb"^(?:\s+|<\?.*?\?>|<!--.*?-->|<!DOCTYPE\s+(?P<doctype>[^\[>]*(?:\[.*?\])?\s*)>)*",
     re.DOTALL,
@@ -150,13 +155,13 @@ class _Builder:
     def item(self, element: etree._Element, section: str, heading: str | None) -> None:
         """Blocks of one child of a container, by its kind."""
         tag = localname(element)
-        if tag in ("", "title", "label", "object-id", "sec-meta", "disp-formula", "graphic"):
+        if tag in SKIPPED:
             return
         if tag == "p":
             self.add("paragraph", element_text(element), section, element, heading=heading)
             for nested in _nested_blocks(element):
                 self.item(nested, section, heading)
-        elif tag == "fig":
+        elif tag in ("fig", "fig-group"):
             self.add(
                 "caption",
                 caption_text(element),
@@ -165,6 +170,8 @@ class _Builder:
                 heading=heading,
                 label=label_text(element),
             )
+            for figure in (c for c in element if localname(c) == "fig"):
+                self.item(figure, section, heading)
         elif tag == "table-wrap":
             self.table_wrap(element, section, heading, group_label="")
         elif tag == "table-wrap-group":

@@ -149,8 +149,13 @@ def test_blocks_in_document_order_with_element_paths(sections_doc: Document) -> 
 def test_figure_caption_block(sections_doc: Document) -> None:
     captions = [b for b in sections_doc.blocks if b.kind == "caption"]
     assert [(b.label, b.text, b.section) for b in captions] == [
-        ("Figure 1", "Tarvic acid by group. Bars show means.", "results")
+        ("Figure 1", "Tarvic acid by group. Bars show means.", "results"),
+        # A fig-group's caption, then each figure's; captions never become headings/paragraphs.
+        ("Figure 2", "Organs after quellorin. Two panels.", "results"),
+        ("Figure 2A", "Liver.", "results"),
+        ("Figure 2B", "Kidney.", "results"),
     ]
+    assert not any("Two panels" in b.text for b in sections_doc.blocks if b.kind != "caption")
     index = captions[0].index
     # The caption sits between the paragraphs around the fig element.
     assert sections_doc.blocks[index - 1].text == "Plasma tarvic acid fell."
