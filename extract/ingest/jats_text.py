@@ -198,4 +198,11 @@ def spaced_text(element: etree._Element) -> str:
             parts.append(child.tail or "")
 
     collect(element)
-    return normalize_text(" ".join(p for p in parts if p.strip()))
+    text = ""
+    for part in (p for p in parts if p):
+        # A space between two text nodes unless one already has it or punctuation closes up.
+        if text and not text[-1].isspace() and not part[0].isspace():
+            if part[0] not in ",.;:)]" and text[-1] not in "([":
+                text += " "
+        text += part
+    return normalize_text(text)
