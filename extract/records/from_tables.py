@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import re
 from collections.abc import Iterator
+from dataclasses import replace
 
 from extract.ingest.document import Document, Table
 from extract.records.draft import Draft
@@ -56,7 +57,8 @@ _STAT_LABEL = re.compile(
 _MEDIAN = re.compile(r"\bmedian\b", re.I)
 _MEAN = re.compile(r"\bmeans?\b", re.I)
 _TIME_IN_TEXT = re.compile(
-    r"\b(?:at|after|on)\s+((?:week|day|month|hour)\s+\d+|\d+\s+(?:weeks?|days?|months?|hours?))\b",
+    r"\b(?:at|after|on)\s+((?:week|day|month|hour)\s+\d+|\d+\s+(?:weeks?|days?|months?|hours?))\b"
+    r"|\b(baseline)\b",
     re.I,
 )
 
@@ -100,7 +102,7 @@ def _header_levels(table: Table, col: int) -> tuple[str, str | None]:
             time_point = text
         else:
             parts.append(text)
-    return " / ".join(parts), time_point
+    return " ".join(parts), time_point
 
 
 def _is_n_label(label: str) -> bool:
@@ -141,6 +143,9 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
         (cells, headers, caption and footnotes); linking fills the rest.
     """
     if table.n_rows <= table.header_rows or table.n_cols < 2:
+        return []
+    table = _with_header_rows(table)
+    if table.n_rows <= table.header_rows:
         return []
     by_columns = orientation(table) == "groups-in-columns"
     texts = _table_texts(table)
@@ -199,11 +204,35 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
                     table_n=table_n,
                     n_from_row=_n_from(table, n_rows_idx, c, by_rows=True),
                     n_from_col=_n_from(table, n_cols_idx, r, by_rows=False),
-                    time_point=time_point or (caption_time.group(1) if caption_time else None),
+                    time_point=time_point
+                    or (
+                        caption_time.group(caption_time.lastindex or 1).lower()
+                        if caption_time
+                        else None
+                    ),
                     median_table=median_table,
                 )
             )
     return drafts
+
+
+def _with_header_rows(table: Table) -> Table:
+    """The table with header rows that ingest read as body rows counted as headers.
+
+    A row right under the headers is a header too when it holds no value cell, or when its label
+    repeats the header's label (a spanning corner cell copied down).
+    """
+    rows = table.header_rows
+    while rows < table.n_rows - 1:
+        label = table.row_label(rows)
+        values = [parse_cell(table.cell(rows, c).text) for c in range(1, table.n_cols)]
+        repeated = rows > 0 and label and label == table.row_label(rows - 1)
+        if any(v is not None for v in values) and not repeated:
+            break
+        if not any(table.cell(rows, c).text.strip() for c in range(1, table.n_cols)):
+            break  # a section row ("Haematology") inside the body, not a header
+        rows += 1
+    return table if rows == table.header_rows else replace(table, header_rows=rows)
 
 
 def _kind_from_caption(caption: str) -> str | None:

@@ -51,7 +51,7 @@ _CLAUSE_BREAK = re.compile(
     r";|,\s*(?:and|whereas|while|but)\s+|\bwhereas\b|\bwhile\b|\bcompared with\b|:\s"
 )
 _LINK_VERB = re.compile(
-    r"\b(?:was|were|is|are|averaged|reached|measured|fell to|rose to|decreased to|increased to|"
+    r"\b(?:was|were|is|are|of|averaged|reached|measured|fell to|rose to|decreased to|increased to|"
     r"declined to|dropped to|of|at|amounted to|totalled|totaled|stood at)\s*$",
     re.I,
 )
@@ -130,6 +130,9 @@ def outcome_before(sentence: str, phrase: ValuePhrase, previous_end: int) -> str
         return None
     name = head[: verb.start()]
     name = re.sub(r"\([^)]*\)", " ", name)
+    name = re.sub(
+        r"^.*\b(?:had|has|have|showed|shows|displayed|reached)\s+(?:a|an|the)?\s*", "", name
+    )
     if "," in name and name.rsplit(",", 1)[1].strip():
         name = name.rsplit(",", 1)[1]
     name = re.sub(
@@ -203,6 +206,10 @@ def sentence_drafts(sentence: Sentence, *, order: float) -> list[Draft]:
             outcome = found_outcome
         if role != "measure":
             continue
+        if not (has_spread(phrase) or phrase.percent is not None) and not found_outcome:
+            # A bare quantity counts only as "<outcome> was <value>"; elsewhere it is context
+            # (a concentration given, a scale bar, a setting).
+            continue
         next_start = min((s for s in measure_starts if s > phrase.start), default=len(text))
         group, n = group_after(text, phrase, next_start)
         if group is None:
@@ -261,6 +268,11 @@ def sentence_drafts(sentence: Sentence, *, order: float) -> list[Draft]:
     return drafts
 
 
+def _is_debris(text: str) -> bool:
+    """True for text that is only numbers (table cells that ingest left in the text flow)."""
+    return len(re.findall(r"[A-Za-z]{3,}", text)) == 0
+
+
 def text_drafts(document: Document, *, sections: tuple[str, ...] = TEXT_SECTIONS) -> list[Draft]:
     """Drafts for every measure in the text of ``sections`` (captions of figures included).
 
@@ -280,7 +292,7 @@ def text_drafts(document: Document, *, sections: tuple[str, ...] = TEXT_SECTIONS
         block_kind = find_dispersion_statement(block.text)
         block_n = find_group_n(block.text)
         for start, text in split_sentences(block.text):
-            if not re.search(r"\d", text):
+            if not re.search(r"\d", text) or _is_debris(text):
                 continue
             for draft in sentence_drafts(Sentence(block, start, text), order=float(block.index)):
                 if (

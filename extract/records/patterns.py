@@ -50,6 +50,10 @@ _STAT_STATEMENT = re.compile(
     r"|\breported as\b|\bshown as\b|\bgiven as\b",
     re.I,
 )
+_STAT_SUFFIX = re.compile(
+    r"\s*,\s*(?:(?:mean|median|n|no\.)\s*(?:±\s*)?[(\[]?\s*(?:SD|SEM|SE|IQR|range|%|95\s*%\s*CI)?\s*[)\]]?)\s*$",
+    re.I,
+)
 _UNIT_IN_LABEL = re.compile(
     r"^(?P<name>.*?)\s*(?:\((?P<p>[^()]*)\)|\[(?P<b>[^\[\]]*)\]|,\s*(?P<c>[^,]+))\s*$"
 )
@@ -88,7 +92,7 @@ def split_label(label: str) -> tuple[str, str | None]:
     "Body mass (g)" -> ("Body mass", "g"); "Creatinine, mg/dL" -> ("Creatinine", "mg/dL");
     "Vehicle (n = 9)" -> ("Vehicle (n = 9)", None): a sample size is not a unit.
     """
-    label = " ".join(label.split())
+    label = _STAT_SUFFIX.sub("", " ".join(label.split()))
     match = _UNIT_IN_LABEL.match(label)
     if match is None:
         return label, None
