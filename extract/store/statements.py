@@ -243,7 +243,15 @@ class StoreBase:
         return len(rows)
 
     def _proposal_row(self, connection: Connection, proposal_id: str) -> Row[Any]:
-        row = connection.execute(select(t.proposals).where(t.proposals.c.id == proposal_id)).first()
+        """The proposal's row, locked for this write transaction where the database can.
+
+        SQLite's BEGIN IMMEDIATE already serialises writers; on PostgreSQL the row lock makes a
+        claim and a decision on the same proposal wait for each other.
+        """
+        query = select(t.proposals).where(t.proposals.c.id == proposal_id)
+        if connection.dialect.name == "postgresql":
+            query = query.with_for_update()
+        row = connection.execute(query).first()
         if row is None:
             raise StoreError(f"{self.name}: no proposal {proposal_id!r}")
         return row
