@@ -329,11 +329,11 @@ class StoreBase:
             ).where(t.proposals.c.article_id == article_id)
         undone: set[str] = set()
         actions: dict[str, list[tuple[str, str]]] = defaultdict(list)
-        for row in connection.execute(log_query):
-            if row.action == "undo":
-                undone.add(row.reverts)
+        for entry in connection.execute(log_query):
+            if entry.action == "undo":
+                undone.add(entry.reverts)
             else:
-                actions[row.proposal_id].append((row.uid, row.action))
+                actions[entry.proposal_id].append((entry.uid, entry.action))
         states = []
         for row in connection.execute(proposals):
             effective = [a for uid, a in actions.get(row.id, ()) if uid not in undone]
