@@ -23,6 +23,7 @@ MARGIN_SHARE = 0.09
 MIN_COLUMN_LINES = 4
 
 _NUMBER = re.compile(r"^\d{1,4}$")
+_STARTS_BLOCK = re.compile(r"^(Table|Fig\.?|Figure)\s+S?\d+", re.IGNORECASE)
 _PAGE_NUMBER = re.compile(r"^(page\s*)?\d{1,4}(\s*(of|/)\s*\d{1,4})?$", re.IGNORECASE)
 
 
@@ -176,8 +177,26 @@ def reading_order(lines: Sequence[Line], gutter: float | None) -> list[tuple[Lin
         left.clear()
         right.clear()
 
+    rights = [ln for ln in ordered if ln.x0 >= gutter]
+
+    def alone(line: Line) -> bool:
+        # a left line with no right-column text beside it spans the page (a short last line of
+        # a full-width paragraph, a caption under both columns)
+        reach = 2.5 * max(line.size, 4.0)
+        return not any(r.bottom > line.top - reach and r.top < line.bottom + reach for r in rights)
+
+    last_full: Line | None = None
     for line in ordered:
-        if line.x0 < gutter < line.x1:
+        tail = (
+            last_full is not None
+            and not left
+            and not right
+            and abs(line.x0 - last_full.x0) <= 2
+            and 0 <= line.top - last_full.bottom < 0.6 * max(line.size, 4.0)
+        )
+        caption = bool(_STARTS_BLOCK.match(line.text)) and alone(line)
+        if line.x0 < gutter < line.x1 or (line.x1 <= gutter and (tail or caption)):
+            last_full = line
             flush()
             out.append((line, 0))
         elif line.x1 <= gutter:
@@ -233,9 +252,6 @@ class RawBlock:
     def bold(self) -> bool:
         """Whether its first line is bold."""
         return self.lines[0].bold
-
-
-_STARTS_BLOCK = re.compile(r"^(Table|Fig\.?|Figure)\s+S?\d+", re.IGNORECASE)
 
 
 def lines_to_blocks(ordered: Sequence[tuple[Line, int]], *, body_size: float) -> list[RawBlock]:

@@ -259,7 +259,14 @@ def find_rules_only(
         inner = [rules[j].top for j in members[1:-1]]
         header_bottom = inner[0] if inner else None
         box = (first.x0, top, first.x1, bottom)
-        table = _table_from_text(words, box, page, style="rules", header_bottom=header_bottom)
+        partial = [
+            s
+            for s in segments
+            if s.horizontal and top < s.top < (header_bottom or bottom) - 1 and s.x1 - s.x0 > 10
+        ]
+        table = _table_from_text(
+            words, box, page, style="rules", header_bottom=header_bottom, span_rules=partial
+        )
         if table is not None:
             tables.append(table)
     return tables
@@ -350,6 +357,7 @@ def _table_from_text(
     *,
     style: str,
     header_bottom: float | None,
+    span_rules: Sequence[Segment] = (),
 ) -> RawTable | None:
     inside = _words_in(words, box)
     rows = _rows_of(inside)
@@ -369,13 +377,21 @@ def _table_from_text(
         n_header = _guess_header(cell_rows, bounds)
     grid: list[tuple[str, ...]] = []
     boxes: list[tuple[tuple[float, float, float, float] | None, ...]] = []
-    for cells in cell_rows:
+    for r, cells in enumerate(cell_rows):
         texts = [""] * len(bounds)
         cboxes: list[tuple[float, float, float, float] | None] = [None] * len(bounds)
         for cell in cells:
             cx0 = min(w.x0 for w in cell)
             cx1 = max(w.x1 for w in cell)
             cols = [i for i, (b0, b1) in enumerate(bounds) if cx0 < b1 and cx1 > b0]
+            if r < n_header:
+                cbottom = max(w.bottom for w in cell)
+                centre = (cx0 + cx1) / 2
+                for rule in span_rules:
+                    if 0 <= rule.top - cbottom <= 8 and rule.x0 - 2 <= centre <= rule.x1 + 2:
+                        cols = [
+                            i for i, (b0, b1) in enumerate(bounds) if b0 < rule.x1 and b1 > rule.x0
+                        ] or cols
             if not cols:
                 centre = (cx0 + cx1) / 2
                 cols = [min(range(len(bounds)), key=lambda i: abs(sum(bounds[i]) / 2 - centre))]
