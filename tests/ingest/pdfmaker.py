@@ -142,7 +142,7 @@ def _grid(
     c.setFont(BODY, 9)
     total = sum(widths)
     top = y
-    for r, row in enumerate(grid):
+    for row in grid:
         cx = x
         for text, w in zip(row, widths, strict=True):
             c.drawString(cx + 3, y - 11, text)
