@@ -57,7 +57,7 @@ _STAT_LABEL = re.compile(
 _MEDIAN = re.compile(r"\bmedian\b", re.I)
 _MEAN = re.compile(r"\bmeans?\b", re.I)
 _TIME_IN_TEXT = re.compile(
-    r"\b(?:at|after|on)\s+((?:week|day|month|hour)\s+\d+|\d+\s+(?:weeks?|days?|months?|hours?))\b"
+    r"\b(?:at|after|on)\s+((?:week|day|month|hour)\s+\d+|\d+\s+(?:weeks?|days?|months?|hours?|h|min))\b"
     r"|\b(baseline)\b",
     re.I,
 )
@@ -147,7 +147,9 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
     table = _with_header_rows(table)
     if table.n_rows <= table.header_rows:
         return []
-    by_columns = orientation(table) == "groups-in-columns"
+    body_labels = [table.row_label(r) for r in range(table.header_rows, table.n_rows)]
+    time_rows = sum(1 for label in body_labels if _TIME_WORDS.match(label)) > len(body_labels) / 2
+    by_columns = time_rows or orientation(table) == "groups-in-columns"
     texts = _table_texts(table)
     table_kind = find_dispersion_statement(texts) or _kind_from_caption(table.caption)
     table_n = find_group_n(texts)
@@ -179,6 +181,9 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
             if parsed is None:
                 continue
             col_label, time_point = col_info[c]
+            if time_rows:
+                outcome_label, group_label = _split_levels(table, c)
+                row_label, col_label, time_point = outcome_label, group_label, row_label
             draft = _cell_draft(
                 document,
                 table,
@@ -214,6 +219,24 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
                 )
             )
     return drafts
+
+
+def _split_levels(table: Table, col: int) -> tuple[str, str]:
+    """For a table with time points down the rows: the outcome level (with a unit) and the group."""
+    outcome, groups = "", []
+    for r in range(table.header_rows):
+        text = " ".join(table.cell(r, col).text.split())
+        if not text or text in groups or text == outcome:
+            continue
+        if not outcome and split_label(text)[1]:
+            outcome = text
+        else:
+            groups.append(text)
+    if not outcome:
+        outcome = " ".join(
+            " ".join(table.cell(r, 0).text.split()) for r in range(table.header_rows)
+        )
+    return outcome, " ".join(groups)
 
 
 def _with_header_rows(table: Table) -> Table:
@@ -342,6 +365,8 @@ def _fill_from_table(
         index = row if by_columns else col
         unit = units[index] if index < len(units) else None
         unit = unit or split_label(outcome_label)[1]
+        if unit is None and col < len(table.column_units):
+            unit = table.column_units[col]  # an outcome level above the groups
         if unit:
             draft = draft.with_found("unit", "header", unit=unit)
     # n: an "n" row/column, the group's header, then the caption or footnotes.

@@ -44,7 +44,7 @@ _BEFORE_AGE = re.compile(r"\b(?:aged|age|ages)\s*(?:of\s*)?$", re.I)
 _AFTER_AGE = re.compile(r"^[\s-]*(?:weeks?|days?|months?|years?)[\s-]*(?:old|of age)", re.I)
 _AFTER_DOSE = re.compile(r"^\s*(?:dose|doses)\b", re.I)
 _TIME_POINT = re.compile(
-    r"\b(?:at|after|on|by|over|during)\s+((?:week|day|month|hour)\s+\d+|\d+\s+(?:weeks?|days?|months?|hours?))\b",
+    r"\b(?:at|after|on|by|over|during)\s+((?:week|day|month|hour)\s+\d+|\d+\s+(?:weeks?|days?|months?|hours?|h|min))\b",
     re.I,
 )
 _CLAUSE_BREAK = re.compile(
