@@ -6,8 +6,9 @@ root (``body/sec[2]/p[3]``; ``root.xpath(ref)`` finds it again) and no page or b
 
 Reading order is document order: the title, each abstract, the body, the back matter (sections,
 acknowledgements, appendices, references) and a trailing ``floats-group``. Figures and tables
-stay where the XML places them; their captions become ``caption`` blocks labelled "Figure 1",
-"Table 1", and table footnotes ``footnote`` blocks with the table's label. See docs/jats.md.
+stay where the XML places them; their captions become ``caption`` blocks reading as printed
+("Figure 1. Caption text", with ``label`` "Figure 1"), and table footnotes ``footnote`` blocks with
+the table's label. See docs/jats.md.
 """
 
 from __future__ import annotations
@@ -123,6 +124,9 @@ class _Builder:
         heading: str | None = None,
         label: str | None = None,
     ) -> None:
+        if kind == "caption" and label:
+            # As printed: "Figure 1. Caption text" (the label is also kept in Block.label).
+            text = f"{label}. {text}" if text else label
         if not text:
             return
         self.blocks.append(

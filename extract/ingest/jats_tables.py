@@ -87,6 +87,8 @@ _BASE_UNITS = frozenset(
         "°F",
         "°",
         "kcal",
+        "gf",
+        "kgf",
         "cal",
         "Hz",
         "Ω",
@@ -134,12 +136,16 @@ _BASE_UNITS = frozenset(
     }
 )
 _FACTOR = re.compile(r"^(?:[×x*]?\s*10\^[\u2212\-]?\d+|10\^[\u2212\-]?\d+)$")
-_EXPONENT = re.compile(r"\^[\u2212\-]?\d+$")
+_EXPONENT = re.compile(r"(?:\^[\u2212\-]?\d+|[\u207b\u00b9\u00b2\u00b3\u2070-\u2079]+)$")
 _UNIT_SEPARATORS = re.compile(r"\s*[/·⋅]\s*|\s+")
 _NOT_UNITS = frozenset(
     {"n", "N", "no", "No", "no.", "No.", "SD", "SEM", "SE", "CI", "OR", "HR", "RR", "vs", "range"}
 )
 _LEADING_WORD = re.compile(r"^(?:in|as)\s+")
+#: A statistic named after the unit: "Age (years), mean (SD)", "Duration (months), median (IQR)".
+_TRAILING_STATISTIC = re.compile(
+    r",\s*(?:mean|median|mean\s+difference|geometric\s+mean|n|no\.?|number)\b[^,]*$", re.IGNORECASE
+)
 
 
 def _is_unit_atom(atom: str) -> bool:
@@ -178,7 +184,9 @@ def unit_from_label(label: str) -> str | None:
     :func:`extract.ingest.tables.unit_of` (common practice: "Body mass (g)", "Glucose [mmol/L]",
     "Glucose, mmol/L"); a header cell holding nothing but a unit ("mg/dL", "(mg/dL)") counts
     too, and "in months" reads as "months". The candidate must then read as a unit
-    (:func:`is_unit`), so "Basal (2F/6M)", "Sex (m/f)" or "Hazard ratio (HR)" state none.
+    (:func:`is_unit`), so "Basal (2F/6M)", "Sex (m/f)" or "Hazard ratio (HR)" state none. A
+    statistic named after the unit is skipped: "Age (years), mean (SD)" -> "years"; "Female
+    sex, n (%)" states none (the count has no unit; the percent is printed beside it).
 
     Args:
         label: the header or row-label text.
@@ -187,11 +195,18 @@ def unit_from_label(label: str) -> str | None:
         The unit string as written (e.g. "mg/dL"), or ``None`` when the label states none.
     """
     label = " ".join(label.split())
-    candidate = unit_of(label)
-    if candidate is None:
-        candidate = label.removeprefix("(").removesuffix(")").removeprefix("[").removesuffix("]")
-    candidate = _LEADING_WORD.sub("", candidate.strip())
-    return candidate if is_unit(candidate) else None
+    whole = label.removeprefix("(").removesuffix(")").removeprefix("[").removesuffix("]")
+    if _TRAILING_STATISTIC.search(label):
+        # "n (%)" or "mean (SD)" describes how values are printed, not their unit.
+        candidates = [unit_of(_TRAILING_STATISTIC.sub("", label))]
+    else:
+        candidates = [unit_of(label), whole]
+    for candidate in candidates:
+        if candidate:
+            candidate = _LEADING_WORD.sub("", candidate.strip())
+            if is_unit(candidate):
+                return candidate
+    return None
 
 
 # --- grid expansion --------------------------------------------------------------------------

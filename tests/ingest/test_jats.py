@@ -149,11 +149,11 @@ def test_blocks_in_document_order_with_element_paths(sections_doc: Document) -> 
 def test_figure_caption_block(sections_doc: Document) -> None:
     captions = [b for b in sections_doc.blocks if b.kind == "caption"]
     assert [(b.label, b.text, b.section) for b in captions] == [
-        ("Figure 1", "Tarvic acid by group. Bars show means.", "results"),
+        ("Figure 1", "Figure 1. Tarvic acid by group. Bars show means.", "results"),
         # A fig-group's caption, then each figure's; captions never become headings/paragraphs.
-        ("Figure 2", "Organs after quellorin. Two panels.", "results"),
-        ("Figure 2A", "Liver.", "results"),
-        ("Figure 2B", "Kidney.", "results"),
+        ("Figure 2", "Figure 2. Organs after quellorin. Two panels.", "results"),
+        ("Figure 2A", "Figure 2A. Liver.", "results"),
+        ("Figure 2B", "Figure 2B. Kidney.", "results"),
     ]
     assert not any("Two panels" in b.text for b in sections_doc.blocks if b.kind != "caption")
     index = captions[0].index
@@ -319,7 +319,7 @@ def test_image_only_table_noted_not_read(
 ) -> None:
     assert "Table 4" not in [t.label for t in tables_doc.tables]
     # Its caption is still a block, so the text is not lost.
-    assert ("Table 4", "Scanned table.") in [
+    assert ("Table 4", "Table 4. Scanned table.") in [
         (b.label, b.text) for b in tables_doc.blocks if b.kind == "caption"
     ]
     with caplog.at_level(logging.WARNING, logger="extract.ingest.jats"):
@@ -363,6 +363,16 @@ def test_table_count_equals_table_wraps_holding_a_table(tables_doc: Document) ->
         ("Median (min, max)", None),
         ("Donor (LDR vs CDR)", None),
         ("Hazard ratio (HR)", None),
+        # Trial baseline tables name the statistic after the unit (CONSORT 2010 item 15,
+        # "baseline demographic and clinical characteristics"; layout is common practice).
+        ("Age (years), mean (SD)", "years"),
+        ("Body mass index (kg/m²), mean (SD)", "kg/m²"),
+        ("Systolic pressure (mmHg), mean [95% CI]", "mmHg"),
+        ("Symptom duration (months), median (IQR)", "months"),
+        ("Female sex, n (%)", None),
+        ("Change in score, mean [95% CI]", None),
+        ("Grip strength (gf)", "gf"),
+        ("mg/dL", "mg/dL"),
         ("Heart rate", None),
         ("", None),
     ],
@@ -590,7 +600,19 @@ def test_fixture_xml_agrees_with_gold(path: Path) -> None:
         assert [[_norm(c) for c in row] for row in table.grid()] == [
             [_norm(c) for c in row] for row in expected["grid"]
         ]
-    paragraphs = [b for b in document.blocks if b.kind == "paragraph"]
+    # Units: a table data point's unit, where its row label or column header prints it, is the
+    # unit the table gives that cell; labels that print no unit give none.
+    tables = {t.label: t for t in document.tables}
+    for point in gold["data_points"]:
+        if point["where"] != "table":
+            continue
+        table = tables[point["table"]]
+        row, col = point["row"], point["col"]
+        labels = table.row_label(row) + " " + table.column_header(col)
+        printed = point["unit"] if point["unit"] and point["unit"] in labels else None
+        assert (table.column_units[col] or table.row_units[row]) == printed, point["id"]
+    # Gold paragraphs include the figure legends, which JATS gives as fig captions.
+    paragraphs = [b for b in document.blocks if b.kind in ("paragraph", "caption")]
     texts = [_norm(b.text) for b in paragraphs]
     start = 0
     for item in gold["paragraphs"]:
