@@ -167,12 +167,17 @@ _INTERVENTION_PATTERNS: tuple[re.Pattern[str], ...] = (
 )
 _GROUP_PATTERNS: tuple[re.Pattern[str], ...] = (
     re.compile(
-        r"\b(?:in|of|for|to|from|the)\s+(?:the\s+)?([\w/.+-]+(?:\s+[\w/.+-]+){0,4}?)\s+(?:group|arm|cohort)s?\b",
+        r"\b(?:in|of|for|to|from|the)\s+(?:the\s+)?([\w/.+-]+(?:\s+[\w/.+-]+){0,4}?)\s+"
+        r"(?:group|arm|cohort)s?\b",
         re.I,
     ),
-    re.compile(r"\b([A-Za-z][\w]*(?:\s+[A-Z0-9][\w]*)?)-treated\b"),
     re.compile(
-        r"\b(?:vs\.?|versus|compared (?:with|to))\s+(?:the\s+)?([\w-]+(?:\s+[\w-]+)?)\s*(?:group|arm|mice|rats|animals|patients)?",
+        r"\b([A-Z][\w]*(?:\s+[A-Z0-9][\w]*)?|vehicle|placebo|saline|sham|control)-treated\b"
+    ),
+    re.compile(
+        r"\b(?:vs\.?|versus|compared (?:with|to))\s+(?:the\s+)?"
+        r"([A-Za-z][\w-]*(?:\s+[A-Z0-9][\w/-]*){0,3})"
+        r"(?=\s*(?:group|arm|mice|rats|animals|patients|controls?)?\s*(?:[,;.)]|$))",
         re.I,
     ),
 )

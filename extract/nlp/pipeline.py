@@ -54,9 +54,27 @@ log = logging.getLogger(__name__)
 DISPERSION_KEY = "winnow.dispersion"
 _PIPES = ("sentences_rules", "quantities_rules", "sample_size_rules", "context_rules")
 
+#: ``doc.user_data`` key: {(start_char, end_char, label): value} behind the span extensions
+#: (spaCy keys span extension values by offsets alone, so two labels on one span would clash).
+VALUES_KEY = "winnow.span_values"
+
+
+def _span_value(attribute: str) -> Any:
+    def getter(span: Span) -> Any:
+        values = span.doc.user_data.get(VALUES_KEY, {})
+        return values.get((attribute, span.start_char, span.end_char, span.label_))
+
+    return getter
+
+
+def _set_span_value(span: Span, attribute: str, value: Any) -> None:
+    values = span.doc.user_data.setdefault(VALUES_KEY, {})
+    values[(attribute, span.start_char, span.end_char, span.label_)] = value
+
+
 for _attribute in ("quantity", "sample_size", "context"):
     if not Span.has_extension(_attribute):
-        Span.set_extension(_attribute, default=None)
+        Span.set_extension(_attribute, getter=_span_value(_attribute))
 
 register_extractor(
     "sentences.rules",
@@ -119,7 +137,7 @@ class QuantitiesComponent(_RuleComponent):
             for quantity in find_quantities(sent.text, dispersion=dispersion):
                 span = _char_span(doc, sent.start_char, quantity.start, quantity.end, quantity.role)
                 if span is not None:
-                    span._.quantity = _shift_quantity(quantity, sent.start_char)
+                    _set_span_value(span, "quantity", _shift_quantity(quantity, sent.start_char))
                     spans.append(span)
         doc.spans["quantities"] = spans
         return doc
@@ -143,9 +161,10 @@ class SampleSizeComponent(_RuleComponent):
             for size in find_sample_sizes(sent.text):
                 span = _char_span(doc, sent.start_char, size.start, size.end, size.scope)
                 if span is not None:
-                    span._.sample_size = replace(
+                    shifted = replace(
                         size, start=size.start + sent.start_char, end=size.end + sent.start_char
                     )
+                    _set_span_value(span, "sample_size", shifted)
                     spans.append(span)
         doc.spans["sample_sizes"] = spans
         return doc
@@ -184,11 +203,12 @@ class ContextComponent(_RuleComponent):
             for mention in mentions:
                 span = _char_span(doc, sent.start_char, mention.start, mention.end, mention.kind)
                 if span is not None:
-                    span._.context = replace(
+                    shifted_mention = replace(
                         mention,
                         start=mention.start + sent.start_char,
                         end=mention.end + sent.start_char,
                     )
+                    _set_span_value(span, "context", shifted_mention)
                     spans.append(span)
         doc.spans["context"] = spans
         return doc

@@ -50,6 +50,8 @@ ROLES: tuple[str, ...] = (
     "setting",
     "time",
     "sample_size",
+    "ratio",
+    "label",
 )
 #: Statistics (the proposal contract's ``statistic``).
 STATISTICS: tuple[str, ...] = ("mean", "median", "percent", "count", "single", "other")
@@ -152,7 +154,7 @@ _IN_BRACKET: tuple[tuple[re.Pattern[str], str], ...] = (
 _POWER_UNIT = r"(?:[×x*]\s*10\s*(?:\^|\*\*|\*)?\s*-?[0-9]+|[×x*]\s*10\s*[⁰¹²³⁴⁵⁶⁷⁸⁹⁻]+)"
 _UNIT_WORD = r"[A-Za-zµμ°%][A-Za-z0-9µμ°%/^²³⁻·*]*"
 _UNIT_AT = re.compile(
-    rf"(\s*)((?:{_POWER_UNIT}\s*)?(?:%\s*of\s+baseline|beats\s+per\s+minute|mm\s+Hg|cm\s+H2O|"
+    rf"(\s*)((?:{_POWER_UNIT}\s*/?\s*)?(?:%\s*of\s+baseline|beats\s+per\s+minute|mm\s+Hg|cm\s+H2O|"
     rf"[°º]\s?[CF]\b|{_UNIT_WORD})(?:\s*/\s*{_UNIT_WORD})?|{_POWER_UNIT})"
 )
 #: Words that pint reads as units but that are English words after a number.
@@ -231,7 +233,8 @@ _SETTING_BEFORE = re.compile(
     r"\b(?:centrifug\w*|incubat\w*|spun|stor\w*|heat\w*|wash\w*|shak\w*|stain\w*|fix\w*|digest\w*|"
     r"sonicat\w*|boil\w*|frozen|freez\w*|kept|housed|maintained|thaw\w*|dried|read|measured at|"
     r"absorbance|wavelength|excitation|emission|magnification|sections?|sectioned|cut|rpm|"
-    r"cycle|temperature of|diluted|dilution|filtered|rinsed|blocked|perfused)\b[^.;]{0,40}$",
+    r"cycle|temperature of|diluted|dilution|filtered|rinsed|blocked|perfused|seeded|plated|grown|"
+    r"cultured|passage|scale bar|housed)\b[^.;]{0,40}$",
     re.I,
 )
 _SETTING_AFTER = re.compile(
@@ -462,6 +465,10 @@ def _classify_role(norm: str, draft: _Draft, *, in_citation: bool) -> str:
     unit = (draft.unit or "").strip()
     if in_citation:
         return "reference"
+    if re.match(r"\s*(?:CI|confidence)", after) and unit == "%":
+        return "label"
+    if re.match(r"\d*:\d", norm[draft.end : draft.end + 3]) or re.search(r"\d:$", before):
+        return "ratio"
     if _P_BEFORE.search(before):
         return "p_value"
     if _REF_BEFORE.search(before):
@@ -707,13 +714,14 @@ def _quantulum_quantities(text: str, *, taken: list[tuple[int, int]]) -> list[Qu
         unit_name = parsed.unit.name
         unit = None
         if unit_name not in ("dimensionless", ""):
-            match = _NUMBER_WORD_RE.search(surface)
-            words = re.sub(
-                r"^[\w\s-]*?\b(?:" + "|".join(_NUMBER_WORDS) + r")\b[\s-]*", "", surface, flags=re.I
-            )
-            unit = words.strip() or (parsed.unit.symbol if match else None)
-            if unit and not is_known_unit(unit):
-                unit = parsed.unit.symbol if is_known_unit(parsed.unit.symbol or "") else unit
+            words = surface.split()
+            while words and (
+                _NUMBER_WORD_RE.fullmatch(words[0].split("-")[-1]) or words[0].lower() == "and"
+            ):
+                words = words[1:]
+            unit = " ".join(words) or None
+            if unit is not None and not is_known_unit(unit):
+                unit = None
         draft = _Draft(value=float(parsed.value), start=start, end=end, unit=unit)
         role = _classify_role(norm, draft, in_citation=False)
         statistic = "percent" if unit_name == "percentage" else "single"
@@ -803,7 +811,7 @@ def parse_cell(
         quantity = _replace(
             quantity, spread=Spread(quantity.spread.kind, quantity.spread.value, "context")
         )
-    if quantity.unit is None and header:
+    if quantity.unit is None and header and quantity.statistic != "count":
         unit = _unit_from_header(header)
         if unit is not None:
             quantity = _replace(quantity, unit=unit, flags=quantity.flags + ("unit_from_header",))

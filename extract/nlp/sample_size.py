@@ -75,10 +75,10 @@ _SUBJECTS = (
     r"mice|mouse|rats?|animals?|patients?|participants?|subjects?|volunteers?|individuals?|"
     r"women|men|children|adults?|dogs?|pigs?|rabbits?|hamsters?|primates?|monkeys?|fish|"
     r"zebrafish|cases?|donors?|samples?|litters?|pups?|biological replicates|replicates|"
-    r"embryos?|larvae|wells|explants|cultures"
+    r"embryos?|larvae|wells|explants|cultures|people|persons"
 )
 _ADJECTIVES = r"(?:(?:male|female|adult|healthy|young|aged|old|juvenile|[\w]+-week-old|[\w]+-old|C\w+|\w+-deficient|wild-type|transgenic)\s+){0,3}"
-_PER_GROUP = r"(?:per|/|in each|each|for each|in every)\s*(?:experimental\s+|treatment\s+)?(?:group|arm|condition|genotype|cohort|treatment|dose|cage)s?\b"
+_PER_GROUP = r"(?:per|/|in each|each|for each|in every)\s*(?:experimental\s+|treatment\s+)?(?:group|arm|condition|genotype|cohort|treatment|dose)s?\b"
 
 _N_EQUALS = re.compile(
     rf"\b[nN]\s*(?:=|:|of)\s*(\d+)(?:\s*(?:–|—|-|to)\s*(\d+))?"
@@ -95,6 +95,10 @@ _GROUP_AFTER = re.compile(
 _GROUP_STOP = frozenset(
     "into and or vs vs. versus with were was the a an of to in for from between among receiving"
     " treated given each per both all groups group arm arms".split()
+)
+_ALLOCATION = re.compile(r"\b(?:randomi[sz]ed|assigned|allocated)\b", re.I)
+_TO_GROUP = re.compile(
+    r"(?<![\w.,:])(\d+)\s+(?:were\s+)?to\s+(?:the\s+)?([^,;.()]+?)(?=\s*(?:,|;|\.\s|\.$|\band\b|\(|$))"
 )
 _TOTAL_BEFORE = re.compile(
     r"\b(?:total of|in all|overall|altogether|enrolled|included|recruited)\s*$", re.I
@@ -199,6 +203,22 @@ def find_sample_sizes(text: str) -> list[SampleSize]:
             continue
         found.append(_make(text, match.start(), match.end(), low, low, "per_group", None, None))
         taken.append((match.start(), match.end()))
+
+    if _ALLOCATION.search(norm):
+        for match in _TO_GROUP.finditer(norm):
+            if overlaps(match.start(), match.end()):
+                continue
+            n = int(match.group(1))
+            group = " ".join(match.group(2).split())
+            found.append(_make(text, match.start(), match.end(), n, n, "group", group, None))
+            taken.append((match.start(), match.end()))
+        for match in re.finditer(
+            r"(?<![\w.,:])(\d+)\s+were\s+(?:randomi[sz]ed|enrolled|included)", norm
+        ):
+            if not overlaps(match.start(), match.end()):
+                n = int(match.group(1))
+                found.append(_make(text, match.start(), match.end(), n, n, "total", None, None))
+                taken.append((match.start(), match.end()))
 
     found.sort(key=lambda s: s.start)
     return found
