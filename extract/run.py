@@ -318,11 +318,7 @@ def run_batch(
     if on_plan:
         on_plan(len(plan.todo))
 
-    by_path = {str(item.path): item for item in plan.todo}
-    for path, result, error in _pool(
-        [str(item.path) for item in plan.todo], extract_file, workers=workers, timeout=timeout
-    ):
-        item = by_path[path]
+    def finished(path: str, result: Any, error: BaseException | None) -> None:
         if error is not None:
             report = FileReport(path, "failed", note=_reason(error, path))
         else:
@@ -339,9 +335,13 @@ def run_batch(
                 proposals=len(proposals),
                 added=added,
             )
-        reports[item.path] = report
+        reports[Path(path)] = report
         if on_file:
             on_file(path, report)
+
+    _pool(
+        [item.path for item in plan.todo], extract_file, finished, workers=workers, timeout=timeout
+    )
     return BatchReport(tuple(reports[p] for p in paths if p in reports), key)
 
 
@@ -372,9 +372,9 @@ def current_extractor_key() -> str:
 
     Files processed with the same key are skipped on a re-run; a new version re-reads them.
     """
-    from extract.registry import load_builtins
+    from extract.registry import names
 
-    return extractor_key_of(load_builtins())
+    return extractor_key_of(names())
 
 
 def extractor_key_of(extractors: Any) -> str:
@@ -389,16 +389,39 @@ def extractor_key_of(extractors: Any) -> str:
 
 
 def _pool(
-    paths: Sequence[str],
-    function: Callable[[str], Any],
+    paths: Sequence[Path],
+    function: Callable[[Path], Any],
+    on_result: Callable[[str, Any, BaseException | None], None],
     *,
     workers: int | None,
     timeout: float | None,
-) -> Iterable[tuple[str, Any, BaseException | None]]:
-    """``(path, result, error)`` per file, as each ends, from the process pool of extract.batch."""
-    from extract.batch import run_files
+) -> None:
+    """Run ``function`` over ``paths`` in extract.batch's process pool.
 
-    yield from run_files(paths, function, workers=workers or default_workers(), timeout=timeout)
+    ``on_result(path, value, error)`` is called in this process as each file ends, so results
+    are stored while the others still run.
+    """
+    from extract.batch import DEFAULT_TIMEOUT, run_batch
+
+    if not paths:
+        return
+    _warm_up()
+    run_batch(
+        function,
+        list(paths),
+        workers=workers if workers is not None else default_workers(),
+        timeout=timeout if timeout is not None else DEFAULT_TIMEOUT,
+        progress=lambda result: on_result(result.path, result.value, result.error),
+    )
+
+
+def _warm_up() -> None:
+    """Build the one-off things (unit registry, pipeline modules) once, before workers fork."""
+    from extract.ingest import read_document  # noqa: F401
+    from extract.records.assemble import first_pass  # noqa: F401
+    from extract.units import get_registry
+
+    get_registry()
 
 
 # --------------------------------------------------------------------------------------------
@@ -475,16 +498,20 @@ def run_for_evaluation(
     """
     from functools import partial
 
+    from extract.baseline import quantities_in
+
+    quantities_in("1.5 g")  # quantulum3's one-off load, done once before the workers fork
     function = partial(evaluate_file, with_first_pass=with_first_pass)
     results: dict[str, tuple[list[Proposal] | None, list[Proposal]]] = {}
     failures: list[FileReport] = []
-    for path, result, error in _pool(
-        [str(p) for p in paths], function, workers=workers, timeout=timeout
-    ):
+
+    def finished(path: str, result: Any, error: BaseException | None) -> None:
         if error is not None:
             failures.append(FileReport(path, "failed", note=_reason(error, path)))
         else:
             results[path] = result
+
+    _pool(list(paths), function, finished, workers=workers, timeout=timeout)
     first: list[Proposal] = []
     baseline: list[Proposal] = []
     for p in paths:
