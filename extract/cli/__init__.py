@@ -22,6 +22,7 @@ COMMANDS: dict[str, tuple[str, str]] = {
     "extract": ("extract", "Propose data-point records from articles into the store / JSON Lines."),
     "decisions": ("decisions", "Export or import the curator decision log as JSON Lines."),
     "evaluate": ("evaluate", "Score the first pass against gold files, beside a naive baseline."),
+    "review": ("review", "Review proposals in the terminal: accept, edit, reject, add missed."),
 }
 
 

@@ -58,7 +58,14 @@ class ReviewApp(App[None]):
     TITLE = "winnow review"
     ENABLE_COMMAND_PALETTE = False
     BINDINGS = [
-        Binding("ctrl+q", "quit", "Quit (decisions are already stored)", priority=True),
+        Binding(
+            "ctrl+q",
+            "quit",
+            "Quit",
+            show=False,
+            priority=True,
+            tooltip="Quit from any screen (every decision is already stored)",
+        ),
         Binding("f1", "show_help", "Help: all keys", show=False),
     ]
 

@@ -27,8 +27,6 @@ COUNT_COLUMNS: tuple[tuple[str, str], ...] = (
 )
 
 CAUTION = "Suggested values: verify against the article; not for clinical decisions."
-#: Characters of an article's title shown in the list.
-TITLE_WIDTH = 28
 
 
 def overall_progress(summaries: Sequence[ArticleSummary]) -> tuple[int, int]:
@@ -48,6 +46,10 @@ class ArticleListScreen(Screen[None]):
         Binding("q", "app.quit", "Quit"),
     ]
 
+    def __init__(self) -> None:
+        super().__init__()
+        self.summaries: dict[str, ArticleSummary] = {}
+
     @property
     def review_app(self) -> ReviewApp:
         """The app, typed."""
@@ -58,12 +60,12 @@ class ArticleListScreen(Screen[None]):
         yield Static(CAUTION, id="list-caution")
         yield ProgressBar(id="overall", show_eta=False)
         yield DataTable(id="articles", cursor_type="row", zebra_stripes=True)
+        yield Static(id="article-info")
         yield Footer()
 
     def on_mount(self) -> None:
         table = self.query_one("#articles", DataTable)
         table.add_column("article", key="article")
-        table.add_column("title", key="title")
         for heading, key in COUNT_COLUMNS:
             table.add_column(heading, key=key)
         table.add_column("done", key="done")
@@ -80,16 +82,13 @@ class ArticleListScreen(Screen[None]):
         table.clear()
         for summary in summaries:
             percent = 100 * summary.done // summary.total if summary.total else 100
-            name = summary.title or summary.file or ""
-            if len(name) > TITLE_WIDTH:
-                name = name[: TITLE_WIDTH - 1] + "…"
             table.add_row(
                 Text(summary.id, style="bold"),
-                Text(name, style="dim"),
                 *[Text(str(getattr(summary, key)), justify="right") for _, key in COUNT_COLUMNS],
                 Text(f"{percent}%", justify="right"),
                 key=summary.id,
             )
+        self.summaries = {s.id: s for s in summaries}
         if summaries:
             table.move_cursor(row=min(selected, len(summaries) - 1))
         decided, total = overall_progress(summaries)
@@ -112,6 +111,20 @@ class ArticleListScreen(Screen[None]):
         row_key, _ = table.coordinate_to_cell_key(table.cursor_coordinate)
         if row_key.value is not None:
             self.review_app.open_article(row_key.value)
+
+    def on_data_table_row_highlighted(self, event: DataTable.RowHighlighted) -> None:
+        summary = self.summaries.get(event.row_key.value or "")
+        info = self.query_one("#article-info", Static)
+        if summary is None:
+            info.update("")
+            return
+        info.update(
+            Text.assemble(
+                (summary.title or "(no title)", "italic"),
+                f"\n{summary.file or 'no file'} · DOI {summary.doi or 'none'} · "
+                f"{summary.total} proposals",
+            )
+        )
 
     def on_data_table_row_selected(self, event: DataTable.RowSelected) -> None:
         event.stop()

@@ -159,8 +159,8 @@ class SourcePanel(Vertical):
     def clear_source(self) -> None:
         """Show nothing (no proposal)."""
         self.border_title = "Source"
-        self.query_one("#source-caption", Static).update("")
-        self.query_one("#source-notes", Static).update("")
+        self.query_one("#source-caption", Static).display = False
+        self.query_one("#source-notes", Static).display = False
         self.query_one(TextSource).display = False
         self.query_one(TableSource).display = False
 
@@ -181,14 +181,16 @@ class SourcePanel(Vertical):
             table_view.load(table, row=row, col=col)
             caption.update(Text(f"{table.label}. {table.caption}".strip(), style="italic"))
             notes.update(Text("\n".join(table.footnotes), style="dim"))
+            caption.display = True
+            notes.display = bool(table.footnotes)
             cell = describe_cell(table, row, col)
             self.border_title = f"{table.label} · {page_label(source)} · {cell}"
             text_view.display = False
             table_view.display = True
         else:
             text_view.load(document, proposal)
-            caption.update("")
-            notes.update("")
+            caption.display = False
+            notes.display = False
             self.border_title = f"Text · {page_label(source)}"
             table_view.display = False
             text_view.display = True
