@@ -141,8 +141,8 @@ _METHOD_PHRASE = re.compile(
     re.I,
 )
 _SUBJECT_MODIFIERS = re.compile(
-    r"((?:(?:male|female|adult|juvenile|aged|young|old|healthy|obese|lean|pregnant|wild-type|"
-    r"transgenic|knockout|\d+-(?:day|week|month|year)-old|[A-Z][A-Za-z0-9]*[0-9][A-Za-z0-9/-]*|"
+    r"(?<![\w-])((?:(?:(?i:male|female|adult|juvenile|aged|young|old|healthy|obese|lean|pregnant|"
+    r"wild-type|transgenic|knockout)|\d+-(?:day|week|month|year)-old|[A-Z][A-Za-z0-9]*[0-9][A-Za-z0-9/-]*|"
     r"[A-Z]{2,}[\w/-]*)\s+){1,4})$"
 )
 _SUBJECT_AGE_AFTER = re.compile(
@@ -211,6 +211,11 @@ _OUTCOME_BEFORE = re.compile(
 _OUTCOME_LEADING = re.compile(
     r"^(?:the|a|an|in|and|while|whereas|but|however|overall|both|mean|median|average|"
     r"baseline|final|total|its|their)\s+",
+    re.I,
+)
+_VERB_IN_PHRASE = re.compile(
+    r"\b(?:had|has|have|showed|shows|show|displayed|exhibited|with|demonstrated|developed|"
+    r"reached|achieved)\s+",
     re.I,
 )
 _CLAUSE_CUT = re.compile(
@@ -355,6 +360,16 @@ def find_outcome(text: str, start: int) -> ContextMention | None:
             offset += lead.end()
             trimmed = trimmed[lead.end() :]
         trimmed = re.sub(r"\s*\([^)]*$", "", trimmed).strip()
+        verbs = list(_VERB_IN_PHRASE.finditer(trimmed))
+        if verbs:
+            verb = verbs[-1]
+            offset += verb.end()
+            trimmed = trimmed[verb.end() :]
+            lead = _OUTCOME_LEADING.match(trimmed)
+            while lead:
+                offset += lead.end()
+                trimmed = trimmed[lead.end() :]
+                lead = _OUTCOME_LEADING.match(trimmed)
         words = trimmed.split()
         if words and trimmed.lower() not in _NOT_OUTCOMES and not words[0][0].isdigit():
             lexicon_hit = _lexicon_regex("outcomes").search(norm, offset, offset + len(trimmed))

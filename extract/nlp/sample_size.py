@@ -96,6 +96,7 @@ _GROUP_STOP = frozenset(
     "into and or vs vs. versus with were was the a an of to in for from between among receiving"
     " treated given each per both all groups group arm arms".split()
 )
+_COPULAS = frozenset("were was is are be been being remained seemed".split())
 _ALLOCATION = re.compile(r"\b(?:randomi[sz]ed|assigned|allocated)\b", re.I)
 _TO_GROUP = re.compile(
     r"(?<![\w.,:])(\d+)\s+(?:were\s+)?to\s+(?:the\s+)?([^,;.()]+?)(?=\s*(?:,|;|\.\s|\.$|\band\b|\(|$))"
@@ -124,6 +125,8 @@ def _group_before(text: str, paren: int) -> str | None:
     words = head[cut + 1 :].split()
     chosen: list[str] = []
     for word in reversed(words):
+        if word.lower() in _COPULAS:
+            return None
         if word.lower() in _GROUP_STOP and chosen:
             break
         if word.lower() in _GROUP_STOP:
