@@ -124,29 +124,20 @@ class BatchReport:
 
 
 def collect_inputs(targets: Iterable[str | Path]) -> list[Path]:
-    """The files named, and the article files (PDF or XML by content) inside folders named.
+    """The files named, and the ``*.pdf`` / ``*.xml`` files inside folders named (recursively).
 
-    Folders are searched recursively, hidden entries skipped; files named directly are kept
-    whatever they hold (a bad one fails with its reason later). Order: as given, folders sorted.
+    Files named directly are kept whatever they hold (a bad one fails with its reason later);
+    the reader is chosen by content, not by name. Folders are walked as ``winnow parse`` does.
 
     Raises:
         InputFileError: a target that does not exist.
     """
-    paths: list[Path] = []
+    from extract.batch import find_files
+
     for target in targets:
-        path = Path(target)
-        if path.is_dir():
-            for child in sorted(path.rglob("*")):
-                parts = child.relative_to(path).parts
-                if any(part.startswith(".") for part in parts) or not child.is_file():
-                    continue
-                if sniff_kind(child) != "unknown":
-                    paths.append(child)
-        elif path.exists():
-            paths.append(path)
-        else:
-            raise InputFileError(path, "no such file or folder")
-    return paths
+        if not Path(target).exists():
+            raise InputFileError(target, "no such file or folder")
+    return find_files(targets)
 
 
 def sniff_kind(path: Path) -> str:

@@ -73,7 +73,7 @@ def test_sniff_kind_by_content_not_name(tmp_path: Path) -> None:
 
 def test_collect_inputs_takes_article_files_from_folders(folder: Path) -> None:
     found = [p.relative_to(folder).as_posix() for p in collect_inputs([folder])]
-    assert found == ["a.pdf", "a.xml", "b.pdf", "sub/d.xml"]
+    assert found == [".hidden/c.pdf", "a.pdf", "a.xml", "b.pdf", "sub/d.xml"]
     # A file named directly is kept whatever it holds: it fails later with its reason.
     assert collect_inputs([folder / "notes.txt"]) == [folder / "notes.txt"]
     with pytest.raises(InputFileError, match="missing.pdf: no such file"):
@@ -94,9 +94,10 @@ def test_file_sha256_matches_hashlib(folder: Path) -> None:
 
 
 def test_plan_prefers_xml_twin_drops_repeats_and_skips_done(folder: Path) -> None:
-    copy = folder / ".hidden" / "b-copy.pdf"  # outside the folder search, named directly
+    copy = folder / "b-copy.txt"  # not found by the folder search, named directly
     copy.write_bytes((folder / "b.pdf").read_bytes())
-    paths = collect_inputs([folder]) + [copy]
+    paths = collect_inputs([folder / "a.pdf", folder / "a.xml", folder / "b.pdf", folder / "sub"])
+    paths.append(copy)
     done = {file_sha256(folder / "sub" / "d.xml")}
     plan = plan_batch(paths, is_processed=lambda sha: sha in done)
     assert [i.path.name for i in plan.todo] == ["a.xml", "b.pdf"]
