@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import os
 import sys
+from datetime import datetime
 from pathlib import Path
 
 import click
@@ -35,6 +36,19 @@ def _existing_store(db: str | None) -> Store:
     return open_store(target)
 
 
+def _parse_since(since: str | None) -> int | str | None:
+    """A sequence number or an ISO 8601 time from --since."""
+    if since is None or since.isdigit():
+        return int(since) if since is not None else None
+    try:
+        datetime.fromisoformat(since)
+    except ValueError as error:
+        raise click.BadParameter(
+            f"{since!r} is neither a sequence number nor an ISO 8601 time", param_hint="--since"
+        ) from error
+    return since
+
+
 @click.group("decisions", help="Export or import the curator decision log (JSON Lines).")
 def command() -> None:
     """Export or import the curator decision log (JSON Lines)."""
@@ -64,7 +78,7 @@ def export_command(
     no_proposals: bool,
 ) -> None:
     """Write the decision log to FILE.jsonl (or '-' for standard output), one decision a line."""
-    since_value: int | str | None = int(since) if since is not None and since.isdigit() else since
+    since_value = _parse_since(since)
     with _existing_store(db) as store:
         options = {
             "since": since_value,

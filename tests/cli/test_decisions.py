@@ -100,3 +100,28 @@ def test_decisions_help_lists_both_commands() -> None:
     result = CliRunner().invoke(main, ["decisions", "--help"])
     assert result.exit_code == 0
     assert "export" in result.output and "import" in result.output
+
+
+def test_bad_since_is_a_usage_error(tmp_path: Path) -> None:
+    make_store(tmp_path / "a.sqlite")
+    result = CliRunner().invoke(
+        main, ["decisions", "export", "-", "--db", str(tmp_path / "a.sqlite"), "--since", "soon"]
+    )
+    assert result.exit_code == 2 and "neither a sequence number" in result.stderr
+
+
+def test_import_from_stdin_and_check_only(tmp_path: Path) -> None:
+    make_store(tmp_path / "a.sqlite")
+    runner = CliRunner()
+    text = runner.invoke(
+        main, ["decisions", "export", "-", "--db", str(tmp_path / "a.sqlite")]
+    ).stdout
+    target = str(tmp_path / "b.sqlite")
+    checked = runner.invoke(
+        main, ["decisions", "import", "-", "--db", target, "--check"], input=text
+    )
+    assert checked.exit_code == 0 and "3 decisions, all lines good" in checked.output
+    with open_store(target) as store:
+        assert list(store.decisions()) == []
+    done = runner.invoke(main, ["decisions", "import", "-", "--db", target], input=text)
+    assert done.exit_code == 0 and "3 decisions added" in done.output
