@@ -81,12 +81,13 @@ def command(
     if not gold_files:
         raise click.ClickException(f"{gold_dir}: no *.gold.json files")
     articles = [load_gold(path) for path in gold_files]
+    given = load_proposals_jsonl(jsonl) if jsonl is not None else None
     inputs = run_for_evaluation(
         articles_beside(gold_files, source=source),
         with_first_pass=jsonl is None,
         workers=workers or default_workers(),
     )
-    proposals = load_proposals_jsonl(jsonl) if jsonl is not None else list(inputs.first_pass)
+    proposals = given if given is not None else list(inputs.first_pass)
     systems = {
         "winnow": evaluate(articles, proposals),
         "baseline": evaluate(articles, inputs.baseline),
