@@ -14,7 +14,7 @@ from __future__ import annotations
 import json
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass
-from datetime import datetime
+from datetime import UTC, datetime
 from functools import cache
 from importlib import resources
 from pathlib import Path
@@ -265,7 +265,7 @@ def _store_lines(store: Store, lines: list[_Line]) -> ImportReport:
             store._insert_decision(
                 connection,
                 uid=data["uid"],
-                created=data["created"],
+                created=_utc(data["created"]),
                 proposal_id=data["proposal"],
                 curator=data["curator"],
                 action=data["action"],
@@ -280,6 +280,11 @@ def _store_lines(store: Store, lines: list[_Line]) -> ImportReport:
             known_uids.add(data["uid"])
             added += 1
     return ImportReport(added, present, proposals_added, articles_added)
+
+
+def _utc(created: str) -> str:
+    """An ISO 8601 time with an offset as UTC text, so that stored times sort as text."""
+    return datetime.fromisoformat(created).astimezone(UTC).isoformat(timespec="microseconds")
 
 
 def read_lines(path: str | Path) -> Iterator[str]:

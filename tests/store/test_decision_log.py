@@ -117,3 +117,14 @@ def test_bad_lines_are_reported_by_number_and_nothing_is_stored(
         assert caught.value.line == 3 and "nothing imported" in str(caught.value)
         assert list(target.decisions()) == [] and target.proposals() == []
         assert target.articles() == []
+
+
+def test_import_stores_times_in_utc(filled: Store, tmp_path: Path) -> None:
+    filled.record_decision(filled.proposals()[0].id, curator="ana", action="accept")
+    line = json.loads(export_text(filled).splitlines()[0])
+    line["created"] = "2026-03-01T11:30:00+02:00"
+    with open_store(tmp_path / "tz.sqlite") as other:
+        import_decisions(other, "log.jsonl", [json.dumps(line)])
+        (decision,) = other.decisions()
+    # 11:30 at UTC+02:00 is 09:30 UTC (ISO 8601 offsets; Python datetime.astimezone).
+    assert decision.created == "2026-03-01T09:30:00.000000+00:00"
