@@ -536,6 +536,15 @@ def test_real_article_structure(
 
 
 @pytest.mark.corpus
+def test_real_article_truncated_is_malformed(corpus_dir: Path, tmp_path: Path) -> None:
+    data = (corpus_dir / "pone-0120049.xml").read_bytes()
+    cut = tmp_path / "cut.xml"
+    cut.write_bytes(data[: len(data) // 2])
+    with pytest.raises(XMLReadError, match=r"^.*cut\.xml: malformed XML: .*line \d+"):
+        read_jats(cut)
+
+
+@pytest.mark.corpus
 def test_real_image_only_tables(real_docs: dict[str, Document]) -> None:
     # The preprint gives its four tables only as images (graphic, no table element).
     document = real_docs["elife-rp95901"]
