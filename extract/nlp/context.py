@@ -200,6 +200,7 @@ _GROUP_NOT = frozenset(
 # Outcome: "<outcome> was/were/of/reached ... <value>"
 _LINK = (
     r"(?:was|were|is|are|averaged|reached|measured|remained|amounted to|totalled|totaled|"
+    r"(?:changed|increased|decreased|rose|fell)\s+by|"
     r"(?:increased|decreased|rose|fell|dropped|declined|changed|improved|recovered)(?:\s+(?:from\s+[^,;]{1,30}\s+)?to)?|"
     r"of|at|:|=|\()"
 )
@@ -218,6 +219,17 @@ _VERB_IN_PHRASE = re.compile(
     r"reached|achieved)\s+",
     re.I,
 )
+_TIME_LEAD = re.compile(
+    r"(?:at|on|by|after|from|in)\s+(?:week|day|month|hour|year|visit)\s+\d+\s*,?\s*", re.I
+)
+_METHOD_TAIL = re.compile(r"\s+(?:by|using|via|on)\s+.*$", re.I)
+_NOT_OUTCOME_START = re.compile(
+    r"(?:given|treated|receiving|received|with|exposed|fed|dosed|injected)\b", re.I
+)
+_PLURAL_HEADS = frozenset(
+    "counts levels concentrations values scores weights volumes rates times pressures".split()
+)
+_CHANGE_BY = re.compile(r"\s+(?:changed|increased|decreased|rose|fell)\s+by\b", re.I)
 _CLAUSE_CUT = re.compile(
     r"[;:]|,\s|\band\b|\bwhile\b|\bwhereas\b|\bbut\b|\bvs\.?|\bversus\b|\bthan\b", re.I
 )
@@ -370,17 +382,43 @@ def find_outcome(text: str, start: int) -> ContextMention | None:
                 offset += lead.end()
                 trimmed = trimmed[lead.end() :]
                 lead = _OUTCOME_LEADING.match(trimmed)
+        time_lead = _TIME_LEAD.match(trimmed)
+        if time_lead:
+            offset += time_lead.end()
+            trimmed = trimmed[time_lead.end() :]
+        lead = _OUTCOME_LEADING.match(trimmed)
+        while lead:
+            offset += lead.end()
+            trimmed = trimmed[lead.end() :]
+            lead = _OUTCOME_LEADING.match(trimmed)
+        trimmed = _METHOD_TAIL.sub("", trimmed)
         words = trimmed.split()
-        if words and trimmed.lower() not in _NOT_OUTCOMES and not words[0][0].isdigit():
+        after_number = re.search(r"\d\s*$", norm[:offset]) is not None
+        if (
+            words
+            and trimmed.lower() not in _NOT_OUTCOMES
+            and not words[0][0].isdigit()
+            and not after_number
+            and not _NOT_OUTCOME_START.match(trimmed)
+        ):
             lexicon_hit = _lexicon_regex("outcomes").search(norm, offset, offset + len(trimmed))
             if lexicon_hit is None and len(words) > 4:
                 words = words[-4:]
                 trimmed = " ".join(words)
                 offset = norm.index(trimmed, offset)
             end = offset + len(trimmed)
-            return ContextMention(
-                "outcome", text[offset:end], _tidy_outcome(text[offset:end]), offset, end
-            )
+            value = _tidy_outcome(text[offset:end])
+            if _CHANGE_BY.match(norm, end):
+                value = f"change in {value}"
+            return ContextMention("outcome", text[offset:end], value, offset, end)
+    # A parallel value ("... was 26.7 h in controls and 30.2 h in treated cultures") shares
+    # the outcome of the value before it.
+    for earlier in reversed(list(re.finditer(r"(?<![\w.])-?\d+(?:\.\d+)?", head))):
+        if earlier.start() < clause_start or _clause_has_link(head, earlier.start()):
+            shared = find_outcome(text, earlier.start())
+            if shared is not None:
+                return shared
+            break
     hits = [m for m in _lexicon_regex("outcomes").finditer(norm) if m.end() <= start]
     if hits:
         hit = hits[-1]
@@ -394,9 +432,20 @@ def find_outcome(text: str, start: int) -> ContextMention | None:
     return None
 
 
+def _clause_has_link(head: str, start: int) -> bool:
+    return _OUTCOME_BEFORE.search(head[:start]) is not None
+
+
 def _tidy_outcome(phrase: str) -> str:
     words = phrase.split()
-    return " ".join(w if (w.isupper() or any(c.isdigit() for c in w)) else w.lower() for w in words)
+    tidy = " ".join(w if (w.isupper() or any(c.isdigit() for c in w)) else w.lower() for w in words)
+    if words and words[-1].lower() in _PLURAL_HEADS:
+        return tidy[:-1]
+    singular = tidy[:-1] if tidy.endswith("s") and not tidy.endswith("ss") else None
+    outcomes = {entry.lower() for entry in load_lexicon("outcomes")}
+    if singular and singular in outcomes and tidy not in outcomes:
+        return singular
+    return tidy
 
 
 def find_context(text: str) -> list[ContextMention]:

@@ -52,6 +52,7 @@ ROLES: tuple[str, ...] = (
     "sample_size",
     "ratio",
     "label",
+    "other",
 )
 #: Statistics (the proposal contract's ``statistic``).
 STATISTICS: tuple[str, ...] = ("mean", "median", "percent", "count", "single", "other")
@@ -224,6 +225,7 @@ _DOSE_BEFORE = re.compile(
     r"gavage\w*|supplement\w*|containing|challenged|exposed|fed|vehicle)\b[^.;]{0,30}$",
     re.I,
 )
+_ABBREVIATION_BEFORE = re.compile(r"\b[A-Z][A-Za-z0-9-]*[A-Z][A-Za-z0-9-]*\s+$")
 _DOSE_AFTER = re.compile(
     r"^\s*(?:,\s*)?(?:i\.p\.|p\.o\.|s\.c\.|i\.v\.|i\.m\.|orally|intraperitoneal\w*|subcutaneous\w*|"
     r"intravenous\w*|daily|twice daily|once daily|per day|/day|per os|by gavage|in drinking water)",
@@ -490,6 +492,8 @@ def _classify_role(norm: str, draft: _Draft, *, in_citation: bool) -> str:
         return "dose"
     if unit and not is_time and _DOSE_BEFORE.search(before) and not draft.has_spread:
         return "dose"
+    if unit and not is_time and not draft.has_spread and _ABBREVIATION_BEFORE.search(before):
+        return "dose"  # a group label: "with OVZ 10 μM", "MSF 30 mg"
     if unit in _SETTING_UNITS or _SETTING_AFTER.match(after):
         return "setting"
     if _SETTING_BEFORE.search(before) and not draft.has_spread:
@@ -724,6 +728,8 @@ def _quantulum_quantities(text: str, *, taken: list[tuple[int, int]]) -> list[Qu
                 unit = None
         draft = _Draft(value=float(parsed.value), start=start, end=end, unit=unit)
         role = _classify_role(norm, draft, in_citation=False)
+        if role == "measure" and unit is None:
+            role = "other"  # "the three arms": a number word without a unit is no data point
         statistic = "percent" if unit_name == "percentage" else "single"
         found.append(
             Quantity(
