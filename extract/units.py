@@ -235,7 +235,7 @@ def get_registry() -> pint.UnitRegistry:
     if _registry is None:
         with _lock:
             if _registry is None:
-                ureg = pint.UnitRegistry(
+                ureg: pint.UnitRegistry = pint.UnitRegistry(
                     preprocessors=[_preprocess], autoconvert_offset_to_baseunit=True
                 )
                 ureg.load_definitions(str(DEFINITIONS_FILE))

@@ -292,7 +292,7 @@ def _find_methods(text: str, norm: str) -> list[ContextMention]:
 
 
 def _find_subjects(text: str, norm: str) -> list[ContextMention]:
-    found = []
+    found: list[ContextMention] = []
     for match in _lexicon_regex("subjects").finditer(norm):
         start, end = match.start(), match.end()
         modifiers = _SUBJECT_MODIFIERS.search(norm[max(0, start - 80) : start])

@@ -186,9 +186,10 @@ def find_sample_sizes(text: str) -> list[SampleSize]:
     for match in _COUNT_SUBJECTS.finditer(norm):
         if overlaps(match.start(), match.end()):
             continue
-        low = parse_number(match.group(1))
-        if low is None or low == 0:
+        count = parse_number(match.group(1))
+        if count is None or count == 0:
             continue
+        low = count
         high = int(match.group(2)) if match.group(2) else low
         if _looks_like_measure(norm, match.start()):
             continue
@@ -201,10 +202,12 @@ def find_sample_sizes(text: str) -> list[SampleSize]:
     for match in _COUNT_PER_GROUP.finditer(norm):
         if overlaps(match.start(), match.end()):
             continue
-        low = parse_number(match.group(1))
-        if low is None or low == 0:
+        per_group = parse_number(match.group(1))
+        if per_group is None or per_group == 0:
             continue
-        found.append(_make(text, match.start(), match.end(), low, low, "per_group", None, None))
+        found.append(
+            _make(text, match.start(), match.end(), per_group, per_group, "per_group", None, None)
+        )
         taken.append((match.start(), match.end()))
 
     if _ALLOCATION.search(norm):
