@@ -23,7 +23,7 @@ def _default_curator() -> str:
 def _quiet_terminal_logging(log_file: Path | None) -> list[logging.Handler]:
     """Take log handlers off the terminal while the app draws on it (a file gets them instead)."""
     root = logging.getLogger()
-    removed = [
+    removed: list[logging.Handler] = [
         h
         for h in root.handlers
         if isinstance(h, logging.StreamHandler) and not isinstance(h, logging.FileHandler)

@@ -33,8 +33,8 @@ def key_groups() -> list[KeyGroup]:
     return [
         ("Article list", ArticleListScreen.BINDINGS),
         ("Review", ReviewScreen.BINDINGS),
-        ("Source, sentence (after tab)", TextSource.BINDINGS),
-        ("Source, table (after tab)", table_moves),
+        ("Source: a sentence", TextSource.BINDINGS),
+        ("Source: a table", table_moves),
         ("Edit / add form", EditScreen.BINDINGS),
         ("Reject", RejectScreen.BINDINGS),
         ("Accept a row or column", BulkAcceptScreen.BINDINGS),

@@ -67,7 +67,13 @@ class ReviewScreen(Screen[None]):
             show=False,
             tooltip="Accept the whole table column (shows them first; y confirms)",
         ),
-        Binding("n", "next_pending", "Next pending", show=False),
+        Binding(
+            "n",
+            "next_pending",
+            "Next pending",
+            show=False,
+            tooltip="Jump to the next pending proposal, passing decided ones",
+        ),
         Binding(
             "left_square_bracket",
             "browse(-1)",
@@ -87,9 +93,9 @@ class ReviewScreen(Screen[None]):
         Binding(
             "tab",
             "app.focus_next",
-            "Into source",
+            "Source",
             show=False,
-            tooltip="Move into the source to pick another sentence or cell (arrows move)",
+            tooltip="Focus the source (it has focus when a proposal opens): arrows pick",
         ),
         Binding("escape", "leave", "Articles", tooltip="Back to the article list"),
         Binding("question_mark", "app.show_help", "Help", key_display="?"),
