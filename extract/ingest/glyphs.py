@@ -80,27 +80,37 @@ def read_chars(page: pdfium.PdfPage, height: float) -> list[Char]:
 
 def _chars_of(tp: object, height: float) -> list[Char]:
     count = raw.FPDFText_CountChars(tp)
+    if count <= 0:
+        return []
+    # all code units in one call (UTF-16LE, one unit per character index)
+    buffer = ctypes.create_string_buffer((count + 1) * 2)
+    raw.FPDFText_GetText(tp, 0, count, ctypes.cast(buffer, ctypes.POINTER(ctypes.c_ushort)))
+    units = memoryview(buffer.raw).cast("H")
     rect = raw.FS_RECTF()
     matrix = raw.FS_MATRIX()
-    get_unicode = raw.FPDFText_GetUnicode
     is_generated = raw.FPDFText_IsGenerated
     loose_box = raw.FPDFText_GetLooseCharBox
     get_matrix = raw.FPDFText_GetMatrix
     font_size = raw.FPDFText_GetFontSize
-    text_object = raw.FPDFText_GetTextObject
+    font_weight = raw.FPDFText_GetFontWeight
     chars: list[Char] = []
-    last_object: int | None = None
-    bold = False
     pending_gap = False
     for i in range(count):
-        code = get_unicode(tp, i)
+        code = units[i]
+        if (code < 0x20 and code not in (0x0A, 0x0D)) or code >= 0xFFFE:
+            # GetText drops pdfium's own markers (0x02: a hyphen at a line end); ask per char
+            code = raw.FPDFText_GetUnicode(tp, i)
         if code in _SKIP_CODES:
             continue
-        if is_generated(tp, i) == 1:
+        if code == 0x20 and is_generated(tp, i) == 1:
             # pdfium replaces some printed spaces by its own; a generated space still
-            # separates words (it is never drawn, so it gets no box of its own).
-            pending_gap = code == 0x20 and bool(chars) and chars[-1].text != " "
+            # separates words when the gap is real (it is never drawn: no box of its own).
+            pending_gap = bool(chars) and chars[-1].text != " "
             continue
+        if 0xD800 <= code <= 0xDFFF:
+            code = raw.FPDFText_GetUnicode(tp, i)
+            if code in _SKIP_CODES or 0xD800 <= code <= 0xDFFF:
+                continue
         text = _REMAP.get(code) or chr(code)
         loose_box(tp, i, rect)
         if pending_gap:
@@ -111,11 +121,7 @@ def _chars_of(tp: object, height: float) -> list[Char]:
         get_matrix(tp, i, matrix)
         a, b, c, d = matrix.a, matrix.b, matrix.c, matrix.d
         upright = a * d > 0 and b * c <= 0
-        obj = text_object(tp, i)
-        address = ctypes.cast(obj, ctypes.c_void_p).value
-        if address != last_object:
-            last_object = address
-            bold = _is_bold(obj)
+        bold = font_weight(tp, i) >= _BOLD_WEIGHT
         if upright:
             size = font_size(tp, i) * math.hypot(c, d)
             bottom = height - rect.bottom

@@ -143,16 +143,17 @@ def is_page_number(line: Line) -> bool:
 
 def find_gutter(lines: Sequence[Line], width: float) -> float | None:
     """The x of a two-column gutter, or ``None`` for a one-column page."""
-    narrow = [ln for ln in lines if ln.x1 - ln.x0 < 0.55 * width]
+    spans = [(ln.x0, ln.x1) for ln in lines]
+    narrow = [(a, b) for a, b in spans if b - a < 0.55 * width]
     if len(narrow) < 2 * MIN_COLUMN_LINES:
         return None
     best: tuple[int, float] | None = None
     x = 0.3 * width
     while x <= 0.7 * width:
-        left = sum(1 for ln in narrow if ln.x1 <= x)
-        right = sum(1 for ln in narrow if ln.x0 >= x)
-        crossing = sum(1 for ln in lines if ln.x0 < x < ln.x1)
+        left = sum(1 for _, b in narrow if b <= x)
+        right = sum(1 for a, _ in narrow if a >= x)
         if left >= MIN_COLUMN_LINES and right >= MIN_COLUMN_LINES:
+            crossing = sum(1 for a, b in spans if a < x < b)
             score = min(left, right) * 2 - crossing * 3
             if crossing <= 0.4 * (left + right) and (best is None or score > best[0]):
                 best = (score, x)

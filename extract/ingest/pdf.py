@@ -99,6 +99,7 @@ class _PageData:
     tables: list[RawTable]
     has_text: bool
     columns: int = 1
+    margin_text: tuple[str, ...] = ()
 
 
 def open_pdf(path: Path) -> pdfium.PdfDocument:
@@ -211,6 +212,7 @@ def _drop_running_lines(pages: list[_PageData]) -> None:
         for line in page.lines:
             key = margin_key(line, page.height)
             if key and (counts[key] >= 2 or is_page_number(line)):
+                page.margin_text += (line.text,)
                 continue
             kept.append(line)
         page.lines = kept
@@ -265,7 +267,7 @@ def _assemble(path: Path, pages: list[_PageData], options: PDFSettings) -> Docum
 
     document_blocks, sections, title = _blocks_and_sections(raw_blocks, kinds, body_size)
     tables = _merge_tables(tables_out, document_blocks)
-    doi = _document_doi(document_blocks)
+    doi = _document_doi(document_blocks, pages[0].margin_text)
     words: tuple[Word, ...] = ()
     if options.keep_words:
         words = tuple(
@@ -289,10 +291,11 @@ def _assemble(path: Path, pages: list[_PageData], options: PDFSettings) -> Docum
     )
 
 
-def _document_doi(blocks: list[Block]) -> str | None:
-    """The article's own DOI: one marked "doi" on page 1 before the references, else the first."""
+def _document_doi(blocks: list[Block], margin: tuple[str, ...]) -> str | None:
+    """The article's own DOI: one marked "doi" on page 1 (running header included) before the
+    references, else the first DOI on page 1."""
     front = [b for b in blocks if b.page == 1 and b.section != "references"]
-    text = " ".join(b.text for b in front)
+    text = " ".join([*margin, *(b.text for b in front)])
     text = re.sub(r"(?<=[-/.])\s+", "", text)
     marked = re.search(r"(doi\.org/|doi:?\s*)(10\.\d{4,9}/\S+)", text, re.IGNORECASE)
     if marked:
@@ -428,9 +431,6 @@ def _blocks_and_sections(
         ):
             section, heading = "abstract", text.split()[0]
             spans.append(["abstract", heading, len(blocks)])
-        elif kind == "paragraph" and section == "title":
-            section, heading = "other", None
-            spans.append(["other", "", len(blocks)])
         blocks.append(
             Block(
                 index=len(blocks),
