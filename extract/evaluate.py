@@ -481,7 +481,7 @@ def _proposal_features(article: GoldArticle, proposal: Proposal) -> list[str]:
         f"where={proposal.source.kind}",
     ]
     if proposal.source.kind == "table":
-        style = article.table_styles.get(_norm_label(proposal.source.table), "unknown")
+        style = article.table_styles.get(_norm_label(proposal.source.table), "label-not-in-gold")
         features.append(f"table_style={style}")
     return features
 
@@ -598,7 +598,7 @@ def plot_scores(
         key=lambda k: (next(i for i, p in enumerate(PLOT_PREFIXES) if k.startswith(p)), k),
     )
     width = 0.8 / max(1, len(scores))
-    figure, axes = plt.subplots(figsize=(max(6.0, 0.55 * len(keys) + 2), 4.2), dpi=100)
+    figure, axes = plt.subplots(figsize=(max(6.0, 0.55 * len(keys) + 4), 4.2), dpi=100)
     for index, (name, system) in enumerate(scores.items()):
         heights = [system.breakdown.get(k, (PRFScore(), PRFScore()))[0].fscore for k in keys]
         positions = [i + (index - (len(scores) - 1) / 2) * width for i in range(len(keys))]
@@ -610,7 +610,7 @@ def plot_scores(
     axes.set_ylim(0, 1.05)
     axes.set_ylabel("F1")
     axes.set_title(title)
-    axes.legend(fontsize=8, loc="lower right")
+    axes.legend(fontsize=8, loc="upper left", bbox_to_anchor=(1.0, 1.0))
     axes.grid(axis="y", alpha=0.3)
     figure.tight_layout()
     path = Path(path)

@@ -108,7 +108,11 @@ def command(
             console.print(f"failed: {line}", style="red")
         console.print(NOTE)
     if plot is not None:
-        plot_scores(systems, plot, title=f"Value-level F1 on {len(articles)} gold articles")
+        plot_scores(
+            systems,
+            plot,
+            title=f"Value-level F1 on {len(articles)} gold articles ({gold_dir.name})",
+        )
         if not as_json:
             click.echo(f"plot written to {plot}")
     if failures:
