@@ -131,7 +131,7 @@ def run_batch(
     if workers == 0:
         return BatchResult(tuple(_run_inline(func, files, progress)))
     limit = max(1, min(workers or os.cpu_count() or 1, len(files) or 1))
-    context = mp.get_context("fork" if hasattr(os, "fork") else "spawn")
+    context: Any = mp.get_context("fork" if hasattr(os, "fork") else "spawn")
     results: dict[int, FileResult[T]] = {}
     pending = list(enumerate(files))
     running: dict[int, tuple[Any, Connection, float]] = {}

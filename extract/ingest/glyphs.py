@@ -237,7 +237,7 @@ def _path_segments(
 ) -> None:
     matrix = raw.FS_MATRIX()
     raw.FPDFPageObj_GetMatrix(obj, matrix)
-    m = (matrix.a, matrix.b, matrix.c, matrix.d, matrix.e, matrix.f)
+    m: tuple[float, ...] = (matrix.a, matrix.b, matrix.c, matrix.d, matrix.e, matrix.f)
     if parent is not None:
         m = _multiply(m, parent)
     a, b, c, d, e, f = m
