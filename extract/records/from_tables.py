@@ -13,17 +13,10 @@ from collections.abc import Iterator
 from dataclasses import replace
 
 from extract.ingest.document import Document, Table
+from extract.nlp.quantities import Quantity, find_dispersion_statement
 from extract.records.draft import Draft
-from extract.records.patterns import (
-    dispersion_kind_in,
-    find_dispersion_statement,
-    find_group_n,
-    find_n,
-    group_and_n,
-    split_label,
-)
+from extract.records.patterns import find_group_n, find_n, group_and_n, read_cell, split_label
 from extract.records.proposal import Source
-from extract.records.values import parse_cell
 
 #: The extractor that reads table cells.
 EXTRACTOR = "tables.cells@1"
@@ -151,7 +144,7 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
     time_rows = sum(1 for label in body_labels if _TIME_WORDS.match(label)) > len(body_labels) / 2
     by_columns = time_rows or orientation(table) == "groups-in-columns"
     texts = _table_texts(table)
-    table_kind = find_dispersion_statement(texts) or _kind_from_caption(table.caption)
+    table_kind = find_dispersion_statement(texts)
     table_n = find_group_n(texts)
     if table_n is None and not by_columns:
         table_n = None
@@ -170,23 +163,24 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
 
     drafts: list[Draft] = []
     for r in data_rows:
-        row_label = " ".join(table.row_label(r).split())
-        if r in n_rows_idx or _P_HEADER.match(row_label):
+        body_label = " ".join(table.row_label(r).split())
+        if r in n_rows_idx or _P_HEADER.match(body_label):
             continue
         for c in range(1, table.n_cols):
             if c in skip_cols:
                 continue
-            cell = table.cell(r, c)
-            parsed = parse_cell(cell.text)
+            parsed = read_cell(table.cell(r, c).text)
             if parsed is None:
                 continue
+            row_label = body_label
             col_label, time_point = col_info[c]
             if time_rows:
-                outcome_label, group_label = _split_levels(table, c)
-                row_label, col_label, time_point = outcome_label, group_label, row_label
+                # Time points down the rows: the outcome and group come from the header levels.
+                row_label, col_label = _split_levels(table, c)
+                time_point = body_label
             draft = _cell_draft(
-                document,
                 table,
+                parsed,
                 r,
                 c,
                 row_label=row_label,
@@ -201,7 +195,7 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
                     draft,
                     table,
                     parsed_unit=parsed.unit,
-                    parsed_kind=parsed.kind,
+                    parsed_kind=parsed.spread.kind if parsed.spread else None,
                     row=r,
                     col=c,
                     by_columns=by_columns,
@@ -248,7 +242,7 @@ def _with_header_rows(table: Table) -> Table:
     rows = table.header_rows
     while rows < table.n_rows - 1:
         label = table.row_label(rows)
-        values = [parse_cell(table.cell(rows, c).text) for c in range(1, table.n_cols)]
+        values = [read_cell(table.cell(rows, c).text) for c in range(1, table.n_cols)]
         repeated = rows > 0 and label and label == table.row_label(rows - 1)
         if any(v is not None for v in values) and not repeated:
             break
@@ -256,13 +250,6 @@ def _with_header_rows(table: Table) -> Table:
             break  # a section row ("Haematology") inside the body, not a header
         rows += 1
     return table if rows == table.header_rows else replace(table, header_rows=rows)
-
-
-def _kind_from_caption(caption: str) -> str | None:
-    match = re.search(
-        r"\b(?:mean|median)\s*(?:±|\+/-)?\s*\(?\s*(SD|SEM|SE|IQR|95% CI)\b", caption, re.I
-    )
-    return dispersion_kind_in(match.group(0)) if match else None
 
 
 def _n_from(table: Table, indices: list[int], other: int, *, by_rows: bool) -> int | None:
@@ -275,8 +262,8 @@ def _n_from(table: Table, indices: list[int], other: int, *, by_rows: bool) -> i
 
 
 def _cell_draft(
-    document: Document,
     table: Table,
+    parsed: Quantity,
     row: int,
     col: int,
     *,
@@ -286,18 +273,12 @@ def _cell_draft(
     order: float,
 ) -> Draft | None:
     cell = table.cell(row, col)
-    parsed = parse_cell(cell.text)
-    if parsed is None:
-        return None
     outcome_label, group_label = (row_label, col_label) if by_columns else (col_label, row_label)
     outcome, _ = split_label(outcome_label)
     if not outcome or _STAT_LABEL.match(outcome):
         return None
     group, _ = group_and_n(group_label)
-    if parsed.bounds is not None:
-        disp_value: float | tuple[float, float] | None = parsed.bounds
-    else:
-        disp_value = parsed.dispersion
+    disp_value = parsed.spread.value if parsed.spread is not None else None
     source = Source(
         kind="table",
         page=cell.page if cell.page is not None else table.page,
@@ -312,7 +293,7 @@ def _cell_draft(
     statistic: str | None = None
     if parsed.percent is not None:
         statistic = "count"
-    elif parsed.is_percent:
+    elif parsed.statistic == "percent":
         statistic = "percent"
     draft = Draft(
         order=(order, row, col),
@@ -385,7 +366,7 @@ def _fill_from_table(
         kind = parsed_kind
         how = "cell"
         if kind is None:
-            kind = dispersion_kind_in(" ".join(_stat_headers(table, row, col)))
+            kind = find_dispersion_statement(" ".join(_stat_headers(table, row, col)))
             how = "header"
         if kind is None and table_kind is not None:
             kind, how = table_kind, "caption"
@@ -402,6 +383,7 @@ def _stat_headers(table: Table, row: int, col: int) -> Iterator[str]:
     """Header texts that may name the statistic: the column's headers, the row label, the corner."""
     for r in range(table.header_rows):
         yield table.cell(r, col).text
+    for r in range(table.header_rows):
         yield table.cell(r, 0).text
     yield table.row_label(row)
 

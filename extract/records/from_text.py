@@ -1,283 +1,278 @@
 """Sentences to drafts: each outcome measurement in results, abstract and legend text.
 
-Only sentences with digits are read. In each, every value phrase (:mod:`extract.records.values`)
-gets a role from the words around it; only measures become drafts. Doses, ages, p-values, years,
-figure/table/reference numbers, time points and sample sizes are context or left out. The outcome
-is read from the clause before the value (carried over to later values of the same sentence), the
-group from the words after it ("in the vehicle group", "in TLV-treated mice"), n from a "(n = 9)"
-beside the group or a per-group statement in the same sentence.
+The nlp pipeline (:func:`extract.nlp.pipeline.analyze`) splits each block into sentences and
+reads every number with its role, unit and spread, the outcome of each measure, the sample sizes
+and the context (time points, groups, subjects, methods, interventions). This module decides
+which measures are data points and links each to its group, n and context:
+
+* a measure is a data point when it prints a spread, is a count with its percentage, or is a
+  bare value with a unit that the clause names ("liver mass was 1.24 g");
+* the group is the one named between the value and the next data point ("... in the vehicle
+  group", "... with BDC 20 mg/kg"), else the one named before it in its clause;
+* n is the group's "(n = 9)" in the same stretch, the denominator of a count ("31 (31%) of 100
+  participants"), or the sentence's per-group statement;
+* the time point is the sentence's own, else the one an earlier sentence of the paragraph set.
 """
 
 from __future__ import annotations
 
 import re
-from collections.abc import Iterator
 from dataclasses import dataclass
 
 from extract.ingest.document import Block, Document
+from extract.nlp.context import ContextMention
+from extract.nlp.pipeline import SentenceFindings, analyze
+from extract.nlp.quantities import Quantity, find_dispersion_statement
+from extract.nlp.sample_size import SampleSize
 from extract.records.draft import Draft
-from extract.records.patterns import find_dispersion_statement, find_group_n
+from extract.records.patterns import find_group_n
 from extract.records.proposal import Source
-from extract.records.values import ValuePhrase, find_value_phrases, has_spread
 
-#: The extractor that reads sentences.
-EXTRACTOR = "quantities.rules@1"
+#: The extractor that reads sentences (the records-level reader over the nlp components).
+EXTRACTOR = "text.sentences@1"
 
 #: Sections whose sentences report data points.
 TEXT_SECTIONS: tuple[str, ...] = ("abstract", "results", "legends")
 
-_ABBREV = re.compile(
-    r"(?:\b(?:Fig|Figs|vs|e\.g|i\.e|al|approx|ca|No|Eq|Ref|Suppl|resp|cf)\.|\b[A-Z]\.)$"
-)
-_SENTENCE_END = re.compile(r"(?<=[.!?])\s+(?=[A-Z(\[])")
-_DOSE_UNIT = re.compile(r"/\s*(?:kg|day|d)\b|^(?:mg|µg|μg|ug|ng|mL|IU)$", re.I)
-_TIME_UNIT = re.compile(
-    r"^(?:weeks?|wk|days?|d|h|hours?|hrs?|min|minutes?|months?|years?|yr)$", re.I
-)
-_BEFORE_P = re.compile(r"\b[pP]\s*(?:value)?\s*[=<>≤≥]\s*$")
-_BEFORE_N = re.compile(r"\b[nN]\s*[=:]\s*$")
-_BEFORE_REF = re.compile(
-    r"(?:\bFigs?\.?|\bFigure|\bTable|\bTab\.|\bref\.?|\bpanel|\bSupplementary|\[|\bweek|\bday|\bmonth|\bhour|\bversion|\bv)\s*$",
+#: Words between an outcome and a bare value that make "<outcome> was <value>".
+_LINK_GAP = re.compile(
+    r"^\s*(?:(?:in|of|for|among)\s+[^,;]{1,40}?\s+)?(?:was|were|is|are|averaged|reached|measured|"
+    r"of|amounted to|totalled|totaled|stood at|(?:rose|fell|increased|decreased|declined|dropped)"
+    r"\s+to)\s+(?:(?:approximately|about|a mean of|a median of|mean|median)\s+)?$",
     re.I,
 )
-_BEFORE_AGE = re.compile(r"\b(?:aged|age|ages)\s*(?:of\s*)?$", re.I)
-_AFTER_AGE = re.compile(r"^[\s-]*(?:weeks?|days?|months?|years?)[\s-]*(?:old|of age)", re.I)
-_AFTER_DOSE = re.compile(r"^\s*(?:dose|doses)\b", re.I)
-_TIME_POINT = re.compile(
-    r"\b(?:at|after|on|by|over|during)\s+((?:week|day|month|hour)\s+\d+|\d+\s+(?:weeks?|days?|months?|hours?|h|min))\b",
+#: A group named by its treatment after a value: "with BDC 20 mg/kg", "in rats given FTZ 4 mg".
+_GIVEN_GROUP = re.compile(
+    r"^[^;]*?\b(?:with|given|receiving|treated with|on)\s+(?P<g>[A-Z][\w-]*(?:\s+[\d.]+\s*"
+    r"(?:mg|µg|μg|ug|ng|g|mL|µL|μL|IU|U|nmol|µmol|μmol|mmol|mM|µM|μM|nM)(?:/kg)?(?:/day|/d)?)?"
+    r"|placebo|vehicle|saline|control)\b",
+)
+_GIVEN_GROUP_ANYWHERE = re.compile(_GIVEN_GROUP.pattern.removeprefix("^[^;]*?"))
+#: A lowercase group before its noun: "control minipigs", "vehicle-treated mice".
+_WORD_GROUP = re.compile(
+    r"\b(?P<g>control|vehicle|placebo|sham|saline|untreated)(?:-treated)?\s+[a-z]+\b"
+    r"|\b(?P<t>[\w]+)-treated\b",
     re.I,
 )
-_CLAUSE_BREAK = re.compile(
-    r";|,\s*(?:and|whereas|while|but)\s+|\bwhereas\b|\bwhile\b|\bcompared with\b|:\s"
-)
-_LINK_VERB = re.compile(
-    r"\b(?:was|were|is|are|of|averaged|reached|measured|fell to|rose to|decreased to|increased to|"
-    r"declined to|dropped to|of|at|amounted to|totalled|totaled|stood at)\s*$",
-    re.I,
-)
-_GROUP_AFTER = re.compile(
-    r"^[^;.]*?\b(?:in|for|among|with|of)\s+(?:the\s+|all\s+)?"
-    r"(?P<g>[^,;()]+?)(?:\s+(?:group|groups|arm|cohort|animals|mice|rats|subjects|patients|cells|wells|cultures))\b",
-    re.I,
-)
-_OUTCOME_LEAD = re.compile(
-    r"^(?:(?:the|a|an|and|but|mean|median|average|overall|in|by|at|after|on)\b\s*|[A-Z][\w-]*-treated\s+)+",
-    re.I,
-)
+#: Words that end one clause's claim on a sample size: "..., whereas", "; ", " and ".
+_CLAUSE_BREAK = re.compile(r";|\bwhereas\b|\bwhile\b|\band\b|\bbut\b", re.I)
 
 
 @dataclass(frozen=True)
-class Sentence:
-    """One sentence of a block with its offset in the block's text."""
+class _Span:
+    """Where one data point's own stretch of the sentence starts and ends."""
 
-    block: Block
     start: int
-    text: str
+    end: int
 
 
-def split_sentences(text: str) -> Iterator[tuple[int, str]]:
-    """Sentences of a paragraph with their start offsets (abbreviations like "Fig." do not end one)."""
-    start = 0
-    for match in _SENTENCE_END.finditer(text):
-        head = text[start : match.start()]
-        if _ABBREV.search(head):
-            continue
-        if head.strip():
-            yield start, head
-        start = match.end()
-    if text[start:].strip():
-        yield start, text[start:]
+def is_debris(text: str) -> bool:
+    """True for text made only of numbers and units (table cells left in the text flow).
+
+    A sentence has at least one plain word ("was", "Values"); "18.8 (1.8) nmol/mg 19.5 (2.6)
+    nmol/mg" and "1211 (196) RFU" have none.
+    """
+    return not any(re.fullmatch(r"[A-Za-z][a-z]{2,}[.,;:]?", word) for word in text.split())
 
 
-def role_of(sentence: str, phrase: ValuePhrase) -> str:
-    """The phrase's role in the sentence: "measure" or a kind of context or noise."""
-    before = sentence[: phrase.start]
-    after = sentence[phrase.end :]
-    if _BEFORE_N.search(before):
-        return "sample_size"
-    if _BEFORE_P.search(before):
-        return "p_value"
-    if _BEFORE_AGE.search(before) or _AFTER_AGE.match(after):
-        return "age"
-    if has_spread(phrase) or phrase.percent is not None:
-        return "measure"
-    if _BEFORE_REF.search(before):
-        return "reference"
-    if phrase.unit and (_DOSE_UNIT.search(phrase.unit) or _AFTER_DOSE.match(after)):
-        return "dose"
-    if phrase.unit and _TIME_UNIT.match(phrase.unit):
-        return "time"
-    if phrase.unit is None and 1900 <= phrase.value <= 2100 and float(phrase.value).is_integer():
-        return "year"
-    if phrase.unit is None:
-        return "other"
-    return "measure"
+def is_data_point(quantity: Quantity, outcome: ContextMention | None, text: str) -> bool:
+    """Whether a measure found by nlp is a data point (see the module docstring)."""
+    if quantity.role != "measure":
+        return False
+    if quantity.spread is not None and not quantity.flags.count("range_only"):
+        return True
+    if quantity.percent is not None or quantity.total is not None:
+        return True
+    if quantity.unit is None or outcome is None:
+        return False
+    return bool(_LINK_GAP.match(text[outcome.end : quantity.start]))
 
 
-def _clause_start(sentence: str, pos: int) -> int:
-    start = 0
-    for match in _CLAUSE_BREAK.finditer(sentence, 0, pos):
-        start = match.end()
-    return start
+def _group_in(text: str, mentions: list[ContextMention], span: _Span, *, after: int) -> str | None:
+    """The group named after the value, before the clause ends ("... in the vehicle group")."""
+    cut = _CLAUSE_BREAK.search(text, after, span.end)
+    end = cut.start() if cut else span.end
+    for mention in mentions:
+        if mention.kind == "group" and after <= mention.start < end:
+            return mention.value
+    given = _GIVEN_GROUP.match(text[after:end])
+    return given["g"] if given else None
 
 
-def outcome_before(sentence: str, phrase: ValuePhrase, previous_end: int) -> str | None:
-    """The outcome named in the clause before the value, or ``None`` (then the last one holds)."""
-    start = max(_clause_start(sentence, phrase.start), previous_end)
-    head = sentence[start : phrase.start]
-    verb = _LINK_VERB.search(head)
-    if verb is None:
-        return None
-    name = head[: verb.start()]
-    name = re.sub(r"\([^)]*\)", " ", name)
-    name = re.sub(
-        r"^.*\b(?:had|has|have|showed|shows|displayed|reached)\s+(?:a|an|the)?\s*", "", name
-    )
-    if "," in name and name.rsplit(",", 1)[1].strip():
-        name = name.rsplit(",", 1)[1]
-    name = re.sub(
-        r"\s+(?:in|of|for|among)\s+(?:the\s+|all\s+)?[^,;]*?(?:group|groups|arm|mice|rats|animals|cells|patients|subjects)\s*$",
-        "",
-        name.strip(),
-        flags=re.I,
-    )
-    name = re.sub(r"^.*\b(?:group|mice|rats|animals|cells|patients)\b,\s*", "", name, flags=re.I)
-    name = _OUTCOME_LEAD.sub("", name.strip(" ,")).strip(" ,")
-    if not name or len(name.split()) > 6 or re.search(r"\d", name):
-        return None
-    return name[:1].lower() + name[1:] if not name[1:2].isupper() else name
-
-
-_GROUP_BEFORE = re.compile(
-    r"\b(?:in|for|among|of)\s+(?:the\s+|all\s+)?(?P<g>[^,;()]+?)(?:-treated)?\s+"
-    r"(?:group|groups|arm|cohort|animals|mice|rats|subjects|patients|cells|wells|cultures)\b",
-    re.I,
-)
-
-
-def group_before(sentence: str, phrase: ValuePhrase, previous_end: int) -> str | None:
+def _group_before(text: str, mentions: list[ContextMention], start: int, value: int) -> str | None:
     """A group named in the clause before the value ("In the vehicle group, X was ...")."""
-    start = max(_clause_start(sentence, phrase.start), previous_end)
-    matches = list(_GROUP_BEFORE.finditer(sentence, start, phrase.start))
-    if not matches:
-        return None
-    group = matches[-1]["g"].strip()
-    return group if len(group.split()) <= 5 else None
+    found: list[tuple[int, str]] = [
+        (m.start, m.value) for m in mentions if m.kind == "group" and start <= m.start < value
+    ]
+    for match in _GIVEN_GROUP_ANYWHERE.finditer(text, start, value):
+        found.append((match.start(), match["g"]))
+    for match in _WORD_GROUP.finditer(text, start, value):
+        found.append((match.start(), match["g"] or match["t"]))
+    return max(found)[1] if found else None
 
 
-def group_after(
-    sentence: str, phrase: ValuePhrase, next_start: int
-) -> tuple[str | None, int | None]:
-    """The group named after the value ("in the vehicle group (n = 9)") and its n, if any."""
-    tail = sentence[phrase.end : next_start]
-    n = None
-    n_match = re.search(r"\(\s*n\s*=\s*(\d+)\s*\)|\bn\s*=\s*(\d+)\b(?!\s*(?:per|/|each))", tail)
-    if n_match:
-        n = int(n_match.group(1) or n_match.group(2))
-    match = _GROUP_AFTER.match(tail)
-    group = None
-    if match:
-        group = match["g"].strip()
-        group = re.sub(r"^(?:the|all)\s+", "", group, flags=re.I)
-        group = re.sub(r"-treated$|\s+treated$", "", group)
-        if len(group.split()) > 5:
-            group = None
-    return group, n
+def _n_for(
+    sizes: tuple[SampleSize, ...], quantity: Quantity, span: _Span, start: int, text: str
+) -> int | None:
+    """The n of one data point: the denominator of a count, else its group's "(n = 9)"."""
+    for size in sizes:
+        if (
+            quantity.statistic == "count"
+            and size.n
+            and size.start >= quantity.end
+            and re.fullmatch(r"\s*of\s*", text[quantity.end : size.start])
+        ):
+            return size.n
+    stretch = [s for s in sizes if s.scope == "group" and s.n and start <= s.start < span.end]
+    stretch = [s for s in stretch if s.start >= quantity.end or s.start >= start]
+    after = [
+        s
+        for s in stretch
+        if s.start >= quantity.end and not _CLAUSE_BREAK.search(text[quantity.end : s.start])
+    ]
+    if after:
+        return after[0].n
+    before = [s for s in stretch if s.start < quantity.start]
+    return before[-1].n if before else None
 
 
-def sentence_drafts(sentence: Sentence, *, order: float) -> list[Draft]:
-    """Drafts for each measure in one sentence."""
-    text = sentence.text
-    phrases = find_value_phrases(text)
-    if not phrases:
+def _source(block: Block, text: str) -> Source:
+    return Source(
+        kind="text",
+        page=block.page,
+        bbox=block.bbox,
+        section=block.section,
+        table=None,
+        row=None,
+        col=None,
+        quote=text.strip(),
+        ref=block.ref,
+    )
+
+
+def sentence_drafts(
+    block: Block, findings: SentenceFindings, *, order: float, time_point: str | None
+) -> list[Draft]:
+    """Drafts for each data point of one analysed sentence of ``block``.
+
+    Args:
+        block: the block the sentence belongs to (page, box, section).
+        findings: what the nlp pipeline found in the sentence (offsets into the block text).
+        order: the block's place in reading order.
+        time_point: the time point an earlier sentence of the block set, if any.
+    """
+    text = block.text
+    points = [
+        (q, o)
+        for q, o in zip(findings.quantities, findings.outcomes, strict=True)
+        if is_data_point(q, o, text)
+    ]
+    if not points:
         return []
-    statement_kind = find_dispersion_statement(text)
-    group_n = find_group_n(text)
-    time_match = _TIME_POINT.search(text)
+    mentions = list(findings.context)
+    context = {m.kind: m.value for m in reversed(mentions) if m.kind != "group"}
+    per_group = find_group_n(findings.text)
     drafts: list[Draft] = []
-    outcome: str | None = None
-    previous_end = 0
-    block = sentence.block
-    roles = [role_of(text, phrase) for phrase in phrases]
-    measure_starts = [p.start for p, r in zip(phrases, roles, strict=True) if r == "measure"]
-    for phrase, role in zip(phrases, roles, strict=True):
-        found_outcome = outcome_before(text, phrase, previous_end)
-        if found_outcome:
-            outcome = found_outcome
-        if role != "measure":
-            continue
-        if not (has_spread(phrase) or phrase.percent is not None) and not found_outcome:
-            # A bare quantity counts only as "<outcome> was <value>"; elsewhere it is context
-            # (a concentration given, a scale bar, a setting).
-            continue
-        next_start = min((s for s in measure_starts if s > phrase.start), default=len(text))
-        group, n = group_after(text, phrase, next_start)
+    previous_end = findings.start
+    source = _source(block, findings.text)
+    for index, (quantity, outcome) in enumerate(points):
+        next_start = points[index + 1][0].start if index + 1 < len(points) else findings.end
+        span = _Span(quantity.start, next_start)
+        group = _group_in(text, mentions, span, after=quantity.end)
+        how_group = "sentence"
         if group is None:
-            group = group_before(text, phrase, previous_end)
-        previous_end = phrase.end
-        statistic = None
-        disp_value: float | tuple[float, float] | None = phrase.dispersion or phrase.bounds
-        if phrase.percent is not None:
-            statistic, disp_value = "count", None
-        elif phrase.unit == "%" and not has_spread(phrase):
+            group = _group_before(text, mentions, previous_end, quantity.start)
+        n = _n_for(findings.sample_sizes, quantity, span, previous_end, text)
+        time = _time_before(mentions, quantity.start) or time_point
+        previous_end = quantity.end
+        statistic: str | None = None
+        if quantity.statistic == "count":
+            statistic = "count"
+        elif quantity.statistic == "percent" and quantity.spread is None:
             statistic = "percent"
-        start = sentence.start + phrase.start
-        source = Source(
-            kind="text",
-            page=block.page,
-            bbox=block.bbox,
-            section=block.section,
-            table=None,
-            row=None,
-            col=None,
-            quote=text.strip(),
-            ref=block.ref,
-        )
+        elif quantity.statistic == "median":
+            statistic = "median"
+        spread = quantity.spread
         draft = Draft(
-            order=(order, start),
-            outcome=outcome or "",
+            order=(order, quantity.start),
+            outcome=outcome.value if outcome else "",
             group=group,
             statistic=statistic,
-            value=phrase.value,
-            raw=phrase.text,
-            unit=phrase.unit,
-            dispersion_kind=phrase.kind,
-            dispersion_value=disp_value,
+            value=quantity.value,
+            raw=quantity.text,
+            unit=quantity.unit,
+            dispersion_kind=spread.kind if spread else None,
+            dispersion_value=spread.value if spread and statistic != "count" else None,
             n=None,
             source=source,
             extractor=EXTRACTOR,
-            location=(block.index, start),
+            location=(block.index, quantity.start),
+            method=context.get("method"),
+            subject=context.get("subject"),
+            intervention=context.get("intervention"),
         ).with_found("value", "value")
         if outcome:
-            draft = draft.with_found("outcome", "sentence" if found_outcome else "paragraph")
+            draft = draft.with_found("outcome", "sentence")
         if group:
-            draft = draft.with_found("group", "sentence")
-        if phrase.unit:
+            draft = draft.with_found("group", how_group)
+        if quantity.unit:
             draft = draft.with_found("unit", "value")
-        if phrase.kind:
-            draft = draft.with_found("dispersion", "value")
-        elif disp_value is not None and statement_kind:
-            draft = draft.with_found("dispersion", "sentence", dispersion_kind=statement_kind)
+        if spread is not None and spread.kind is not None:
+            how = "value" if spread.kind_from == "text" else "legend"
+            draft = draft.with_found("dispersion", how)
         if n is not None:
             draft = draft.with_found("n", "sentence", n=n)
-        elif group_n is not None:
-            draft = draft.with_found("n", "sentence", n=group_n)
-        if time_match:
-            draft = draft.with_found("time_point", "sentence", time_point=time_match.group(1))
+        elif per_group is not None:
+            draft = draft.with_found("n", "sentence", n=per_group)
+        if time:
+            how = "sentence" if _time_before(mentions, quantity.start) else "paragraph"
+            draft = draft.with_found("time_point", how, time_point=time)
         drafts.append(draft)
     return drafts
 
 
-def _is_debris(text: str) -> bool:
-    """True for text that is only numbers (table cells that ingest left in the text flow)."""
-    return len(re.findall(r"[A-Za-z]{3,}", text)) == 0
+def _time_before(mentions: list[ContextMention], position: int) -> str | None:
+    """The sentence's time point: the last one named before the value, else the first after."""
+    times = [m for m in mentions if m.kind == "time_point"]
+    before = [m for m in times if m.end <= position]
+    if before:
+        return before[-1].value
+    return times[0].value if times else None
+
+
+def block_drafts(block: Block) -> list[Draft]:
+    """Drafts for every data point of one text block (paragraph or figure legend).
+
+    A legend's or paragraph's statement ("Values are mean ± SEM; n = 6 per group") applies to
+    the values of the whole block; a time point set by one sentence carries to the next.
+    """
+    block_kind = find_dispersion_statement(block.text)
+    block_n = find_group_n(block.text)
+    how = "legend" if block.kind == "caption" else "paragraph"
+    drafts: list[Draft] = []
+    time_point: str | None = None
+    for findings in analyze(block.text, dispersion=block_kind):
+        if not re.search(r"\d", findings.text) or is_debris(findings.text):
+            continue
+        for draft in sentence_drafts(
+            block, findings, order=float(block.index), time_point=time_point
+        ):
+            if draft.dispersion_value is not None and draft.how("dispersion") is None:
+                if draft.dispersion_kind is not None:
+                    draft = draft.with_found("dispersion", how)
+            if draft.n is None and block_n is not None:
+                draft = draft.with_found("n", how, n=block_n)
+            drafts.append(draft)
+        times = [m.value for m in findings.context if m.kind == "time_point"]
+        if times:
+            time_point = times[-1]
+    return drafts
 
 
 def text_drafts(document: Document, *, sections: tuple[str, ...] = TEXT_SECTIONS) -> list[Draft]:
-    """Drafts for every measure in the text of ``sections`` (captions of figures included).
+    """Drafts for every data point in the text of ``sections`` (figure legends included).
 
-    A legend's dispersion statement ("Values are mean ± SEM; n = 6 per group") applies to the
-    values of the whole legend; table captions are left to the table reader.
+    Table captions and footnotes are left to the table reader.
     """
     drafts: list[Draft] = []
     for block in document.blocks:
@@ -289,21 +284,5 @@ def text_drafts(document: Document, *, sections: tuple[str, ...] = TEXT_SECTIONS
             continue
         if not re.search(r"\d", block.text):
             continue
-        block_kind = find_dispersion_statement(block.text)
-        block_n = find_group_n(block.text)
-        for start, text in split_sentences(block.text):
-            if not re.search(r"\d", text) or _is_debris(text):
-                continue
-            for draft in sentence_drafts(Sentence(block, start, text), order=float(block.index)):
-                if (
-                    draft.dispersion_value is not None
-                    and draft.dispersion_kind is None
-                    and block_kind
-                ):
-                    how = "legend" if block.kind == "caption" else "paragraph"
-                    draft = draft.with_found("dispersion", how, dispersion_kind=block_kind)
-                if draft.n is None and block_n is not None:
-                    how = "legend" if block.kind == "caption" else "paragraph"
-                    draft = draft.with_found("n", how, n=block_n)
-                drafts.append(draft)
+        drafts.extend(block_drafts(block))
     return drafts

@@ -20,8 +20,9 @@ import re
 from dataclasses import dataclass, field
 
 from extract.ingest.document import Document
+from extract.nlp.quantities import find_dispersion_statement
 from extract.records.draft import FOUND_WEIGHTS, Draft
-from extract.records.patterns import find_dispersion_statement, find_group_n
+from extract.records.patterns import find_group_n
 from extract.records.proposal import Dispersion, Proposal, make_id
 from extract.records.stats import derive_sd
 from extract.units import normalize

@@ -1,55 +1,22 @@
-"""Small text patterns the records layer reads itself: table cells, header labels, statements.
+"""Table-structure helpers the records layer needs around the nlp readers.
 
-These are the narrow forms that tables and methods sentences use ("24.1 ± 1.3", "12 (40%)",
-"Vehicle (n = 9)", "Body mass (g)", "n = 6 per group", "Values are mean ± SEM"). Free text goes
-through the nlp pipeline; these helpers cover the structured places around it.
+Numbers, spreads, dispersion statements and sample sizes are read by :mod:`extract.nlp`
+(``quantities.parse_cell``, ``quantities.find_dispersion_statement``,
+``sample_size.find_sample_sizes``). What stays here is the shape of table labels: footnote marks
+on cells, empty marks, "Body mass (g)" (a label and its unit), "Vehicle (n = 9)" (a group and its
+n), and the per-group n of a statement, read through the nlp sample-size reader.
 """
 
 from __future__ import annotations
 
 import re
+from dataclasses import replace
 
-#: Number words that articles write for small sample sizes.
-NUMBER_WORDS: dict[str, int] = {
-    w: i
-    for i, w in enumerate(
-        "zero one two three four five six seven eight nine ten eleven twelve thirteen fourteen"
-        " fifteen sixteen seventeen eighteen nineteen twenty".split()
-    )
-}
+from extract.nlp.quantities import Quantity, parse_cell
+from extract.nlp.sample_size import find_sample_sizes
 
-_MINUS = "\u2212\u2013\u2012"  # minus sign, en dash, figure dash used as minus
 _MARKS = "*†‡§#¶"
-
 _EMPTY_CELL = re.compile(r"^(?:|[-\u2013\u2014\u2212.]+|n\.?\s?[ad]\.?|na|nd|ns|n/a|–)$", re.I)
-
-_N_EQ = re.compile(
-    r"\b[nN]\s*(?:=|:)\s*(\d+)(?!\s*[-\u2013]\s*\d)(?:\s*(?:animals?|mice|rats|subjects|"
-    r"patients|participants|samples|per|/|each)?\s*(?:per|/|in each|each)?\s*(group|arm))?"
-)
-_N_WORD = re.compile(
-    rf"(?<![-\u2013\d.])(?<![-\u2013]\s)\b(\d+|{'|'.join(NUMBER_WORDS)})\s+(?:\w+\s+){{0,2}}(?:per|in each|/)\s*(?:group|arm)\b",
-    re.I,
-)
-_GROUP_N = re.compile(r"\s*[(\[,;]?\s*\b[nN]\s*=\s*(\d+)\s*[)\]]?\s*$")
-
-_DISP_WORDS: tuple[tuple[str, str], ...] = (
-    (
-        r"standard errors? of (?:the )?means?|\bs\.?e\.?m\.?\b|\bSEM\b|\bSE\b|standard errors?",
-        "SEM",
-    ),
-    (r"standard deviations?|\bs\.?d\.?\b|\bSD\b", "SD"),
-    (r"95\s*%\s*(?:confidence intervals?|CI)|\bCI\b|confidence intervals?", "CI95"),
-    (r"interquartile ranges?|\bIQR\b|quartiles", "IQR"),
-    (r"\branges?\b|min(?:imum)?\s*[-–]\s*max(?:imum)?", "range"),
-)
-_DISP_RES = tuple((re.compile(p, re.I), kind) for p, kind in _DISP_WORDS)
-_STAT_STATEMENT = re.compile(
-    r"\b(?:data|values|results|measurements|numbers|variables)\b[^.;]{0,60}?\b(?:are|were|is|as|show)\b"
-    r"|\bmeans?\s*(?:±|\+/-|\(|\[)|\bmedians?\s*(?:\(|\[)|\bexpressed as\b|\bpresented as\b"
-    r"|\breported as\b|\bshown as\b|\bgiven as\b",
-    re.I,
-)
 _STAT_SUFFIX = re.compile(
     r"\s*,\s*(?:(?:mean|median|n|no\.)\s*(?:±\s*)?[(\[]?\s*(?:SD|SEM|SE|IQR|range|%|95\s*%\s*CI)?\s*[)\]]?)\s*$",
     re.I,
@@ -57,20 +24,9 @@ _STAT_SUFFIX = re.compile(
 _UNIT_IN_LABEL = re.compile(
     r"^(?P<name>.*?)\s*(?:\((?P<p>[^()]*)\)|\[(?P<b>[^\[\]]*)\]|,\s*(?P<c>[^,]+))\s*$"
 )
-
-
-def to_number(text: str) -> float:
-    """A float from a number as printed ("−2.1", "1,5", "7.3 × 10^3")."""
-    text = text.strip()
-    for ch in _MINUS:
-        text = text.replace(ch, "-")
-    match = re.match(r"^(-?\d+(?:[.,]\d+)?)(?:\s*[×x]\s*10\^?(-?\d+))?$", text)
-    if match is None:
-        raise ValueError(f"not a number: {text!r}")
-    mantissa = float(match.group(1).replace(",", "."))
-    if match.group(2) is not None:
-        mantissa *= 10 ** int(match.group(2))
-    return mantissa
+_GROUP_N = re.compile(r"\s*[(\[,;]?\s*\b[nN]\s*=\s*(\d+)\s*[)\]]?\s*$")
+_UNIT_WORD = re.compile(r"[A-Za-zµμ°][A-Za-z0-9µμ/²³·^-]{0,11}")
+_CENSORED = re.compile(r"^(?:[<>≤≥]|[pP]\s*[=<>])")
 
 
 def clean_cell(text: str) -> str:
@@ -84,6 +40,29 @@ def clean_cell(text: str) -> str:
 def is_empty_cell(text: str) -> bool:
     """True for cells that hold no value ("", "—", "n.d.", "NA")."""
     return bool(_EMPTY_CELL.match(clean_cell(text)))
+
+
+def read_cell(text: str) -> Quantity | None:
+    """The data value of one table cell, read by :func:`extract.nlp.quantities.parse_cell`.
+
+    The whole cell (footnote marks aside) must be one quantity: "24.1 ± 1.3", "42 (37.5%)",
+    "131 [127–135]". P-value and censored forms ("<0.001", "p = 0.03"), empty marks ("—",
+    "n.d.") and cells with more text after the value give ``None``: they are not data points.
+    """
+    text = clean_cell(text)
+    if not text or is_empty_cell(text) or _CENSORED.match(text):
+        return None
+    quantity = parse_cell(text)
+    if quantity is None:
+        return None
+    rest = text[quantity.end :].strip()
+    if rest and quantity.unit is None and _UNIT_WORD.fullmatch(rest):
+        # A unit the unit registry does not know ("RFU", "AU"): kept as written, and linking
+        # flags it "unknown_unit".
+        return replace(quantity, unit=rest, end=len(text), text=text)
+    if quantity.end != len(text):
+        return None
+    return quantity
 
 
 def split_label(label: str) -> tuple[str, str | None]:
@@ -117,7 +96,9 @@ def split_label(label: str) -> tuple[str, str | None]:
 
 def _dispersion_only(text: str) -> bool:
     return bool(
-        re.fullmatch(r"(?:mean|median)?\s*(?:±|\+/-)?\s*(?:SD|SEM|SE|IQR|range|95% CI)", text, re.I)
+        re.fullmatch(
+            r"(?:mean|median)?\s*(?:±|\+/-)?\s*(?:SD|SEM|SE|IQR|range|(?:95\s*%\s*)?CI)", text, re.I
+        )
     )
 
 
@@ -131,34 +112,16 @@ def group_and_n(label: str) -> tuple[str, int | None]:
 
 
 def find_group_n(text: str) -> int | None:
-    """The per-group n that a statement gives ("n = 6 per group", "eight mice per group")."""
-    match = _N_EQ.search(text)
-    if match and (match.group(2) or re.search(r"\b(?:per|each|/)\s*(?:group|arm)", text, re.I)):
-        return int(match.group(1))
-    match = _N_WORD.search(text)
-    if match:
-        word = match.group(1).lower()
-        return int(word) if word.isdigit() else NUMBER_WORDS[word]
+    """The per-group n a statement gives ("n = 6 per group", "eight mice per group"), or None."""
+    for size in find_sample_sizes(text):
+        if size.scope == "per_group" and size.n is not None:
+            return size.n
     return None
 
 
 def find_n(text: str) -> int | None:
-    """The first single "n = 9" in a text (not a range such as "n = 8-10")."""
-    match = _N_EQ.search(text)
-    return int(match.group(1)) if match else None
-
-
-def dispersion_kind_in(text: str) -> str | None:
-    """The dispersion kind named in a short text (a header, "mean (SEM)"), or ``None``."""
-    hits = [(m.start(), kind) for regex, kind in _DISP_RES for m in [regex.search(text)] if m]
-    return min(hits)[1] if hits else None
-
-
-def find_dispersion_statement(text: str) -> str | None:
-    """The dispersion kind a statement declares ("Values are mean ± SEM", "expressed as median (IQR)")."""
-    for sentence in re.split(r"(?<=[.;])\s+", text):
-        if _STAT_STATEMENT.search(sentence):
-            kind = dispersion_kind_in(sentence)
-            if kind is not None:
-                return kind
+    """The first single n a text states ("n = 9"; not a range such as "n = 8-10")."""
+    for size in find_sample_sizes(text):
+        if size.n is not None and size.scope != "total":
+            return size.n
     return None

@@ -5,7 +5,7 @@ from __future__ import annotations
 import pytest
 
 from extract.records.assemble import first_pass
-from extract.records.from_text import split_sentences
+from extract.records.from_text import is_debris
 from tests.records._build import make_document
 
 RESULTS = (
@@ -95,10 +95,73 @@ def test_sections_without_data_are_skipped() -> None:
     assert first_pass(document) == []
 
 
-def test_split_sentences_keeps_abbreviations() -> None:
-    text = "Values are shown in Fig. 2. Mass was 1.2 g vs. 1.4 g. Done."
-    assert [s for _, s in split_sentences(text)] == [
-        "Values are shown in Fig. 2.",
-        "Mass was 1.2 g vs. 1.4 g.",
-        "Done.",
-    ]
+def test_count_takes_its_denominator_as_n_and_the_treatment_as_group() -> None:
+    # "k (p%) of N" reports a count out of N participants (common practice in trial reports).
+    document = make_document(
+        [("results", "A response was seen in 31 (31.0%) of 100 participants given QRV 40 mg.")]
+    )
+    (proposal,) = first_pass(document)
+    assert (proposal.value, proposal.statistic, proposal.n) == (31.0, "count", 100)
+    assert proposal.group == "QRV 40 mg"
+
+
+def test_group_named_by_its_treatment_after_the_value() -> None:
+    document = make_document(
+        [
+            (
+                "results",
+                "Body mass was 314.6 ± 7.0 g in the vehicle group and 393.6 ± 7.0 g in rats "
+                "given TLV 20 mg/kg (mean ± SEM).",
+            )
+        ]
+    )
+    first, second = first_pass(document)
+    assert (first.group, second.group) == ("vehicle", "TLV 20 mg/kg")
+
+
+def test_group_n_stated_before_the_value_in_its_clause() -> None:
+    document = make_document(
+        [
+            (
+                "results",
+                "At day 28, control minipigs (n = 6) had a body weight of 12.4 ± 1.2 kg, whereas "
+                "minipigs given FTZ 40 mg/kg/day (n = 8) weighed 16.1 ± 1.3 kg.",
+            )
+        ]
+    )
+    first, second = first_pass(document)
+    assert (first.n, second.n) == (6, 8)
+    assert (first.group, second.group) == ("control", "FTZ 40 mg/kg/day")
+
+
+def test_time_point_carries_to_later_sentences_of_the_paragraph() -> None:
+    document = make_document(
+        [
+            (
+                "results",
+                "At week 6, body mass was 314.6 ± 7.0 g in the vehicle group. "
+                "White cell counts were 7.3 ± 0.3 ×10³/µL in the vehicle group.",
+            )
+        ]
+    )
+    assert [p.time_point for p in first_pass(document)] == ["week 6", "week 6"]
+
+
+def test_bare_value_needs_a_named_outcome() -> None:
+    document = make_document(
+        [("results", "Liver mass was 1.24 g. Cells were exposed to 50 µM talvorin.")]
+    )
+    assert [(p.outcome, p.value) for p in first_pass(document)] == [("liver mass", 1.24)]
+
+
+@pytest.mark.parametrize(
+    ("text", "debris"),
+    [
+        ("18.8 (1.8) nmol/mg 19.5 (2.6) nmol/mg", True),
+        ("1211 (196) RFU", True),
+        ("Liver mass was 1.24 g.", False),
+        ("Values are mean ± SEM.", False),
+    ],
+)
+def test_table_cells_in_the_text_flow_are_debris(text: str, debris: bool) -> None:
+    assert is_debris(text) is debris

@@ -1,17 +1,10 @@
-"""Value phrases in cells and sentences; labels, group headers and statements."""
+"""Table cells read through the nlp reader; labels, group headers and per-group statements."""
 
 from __future__ import annotations
 
 import pytest
 
-from extract.records.patterns import (
-    find_dispersion_statement,
-    find_group_n,
-    group_and_n,
-    split_label,
-    to_number,
-)
-from extract.records.values import find_value_phrases, parse_cell
+from extract.records.patterns import find_group_n, group_and_n, read_cell, split_label
 
 
 @pytest.mark.parametrize(
@@ -29,31 +22,41 @@ from extract.records.values import find_value_phrases, parse_cell
         ("24.1 ± 1.3*", 24.1, 1.3, None, None, None),
     ],
 )
-def test_parse_cell_forms(text, value, spread, bounds, kind, unit) -> None:
-    cell = parse_cell(text)
-    assert cell is not None
-    assert (cell.value, cell.dispersion, cell.bounds, cell.kind, cell.unit) == (
+def test_read_cell_forms(text, value, spread, bounds, kind, unit) -> None:
+    # Printed forms of a mean with its spread (common practice in biomedical tables).
+    cell = read_cell(text)
+    assert cell is not None and cell.spread is not None
+    assert (cell.value, cell.spread.value, cell.spread.kind, cell.unit) == (
         value,
-        spread,
-        bounds,
+        spread if spread is not None else bounds,
         kind,
         unit,
     )
 
 
-def test_parse_cell_count_with_percent() -> None:
-    cell = parse_cell("42 (37.5%)")
+def test_read_cell_count_with_percent() -> None:
+    cell = read_cell("42 (37.5%)")
     assert cell is not None and (cell.value, cell.percent) == (42.0, 37.5)
 
 
-@pytest.mark.parametrize("text", ["<0.001", "P = 0.03", "—", "n.d.", "NA", "Vehicle", ""])
-def test_parse_cell_no_data(text: str) -> None:
-    assert parse_cell(text) is None
+@pytest.mark.parametrize(
+    "text", ["<0.001", "P = 0.03", "—", "n.d.", "NA", "Vehicle", "", "45.5 ± 3.2 (n = 8) vs 41"]
+)
+def test_read_cell_no_data(text: str) -> None:
+    # P-value cells, empty marks and cells with more than one value are no data points
+    # (proposal record contract, DESIGN.md).
+    assert read_cell(text) is None
 
 
-def test_to_number_unicode_minus_and_power_of_ten() -> None:
-    assert to_number("\u22122.5") == -2.5
-    assert to_number("7.3 × 10^3") == pytest.approx(7300.0)
+def test_read_cell_keeps_a_unit_the_registry_lacks() -> None:
+    # Relative fluorescence units are a plate-reader convention (common practice), not in pint.
+    cell = read_cell("1213 ± 214 RFU")
+    assert cell is not None
+    assert (cell.value, cell.unit, cell.spread.value if cell.spread else None) == (
+        1213.0,
+        "RFU",
+        214.0,
+    )
 
 
 @pytest.mark.parametrize(
@@ -87,22 +90,3 @@ def test_group_and_n_from_header() -> None:
 )
 def test_find_group_n(text: str, n: int | None) -> None:
     assert find_group_n(text) == n
-
-
-@pytest.mark.parametrize(
-    ("text", "kind"),
-    [
-        ("Values are mean ± SEM.", "SEM"),
-        ("Data are expressed as mean (SD).", "SD"),
-        ("Results are presented as median (IQR).", "IQR"),
-        ("Grip strength was measured with a gauge.", None),
-    ],
-)
-def test_find_dispersion_statement(text: str, kind: str | None) -> None:
-    assert find_dispersion_statement(text) == kind
-
-
-def test_sentence_phrases_keep_offsets() -> None:
-    text = "Glucose was 8.4 ± 1.1 mmol/L and 7.9 ± 0.9 mmol/L."
-    phrases = find_value_phrases(text)
-    assert [text[p.start : p.end] for p in phrases] == ["8.4 ± 1.1 mmol/L", "7.9 ± 0.9 mmol/L"]
