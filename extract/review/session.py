@@ -221,8 +221,7 @@ class ReviewSession:
     def peers(self, axis: str) -> list[ProposalState]:
         """Pending proposals from the same table row (``"row"``) or column (``"col"``).
 
-        The shown proposal comes first when it is pending; proposals claimed by another
-        curator are left out.
+        They come in document order; proposals claimed by another curator are left out.
         """
         if axis not in AXES:
             raise ValueError(f"axis must be one of {AXES}, got {axis!r}")
@@ -243,7 +242,6 @@ class ReviewSession:
                 and other.id not in self.passed_over
             ):
                 picked.append(other)
-        picked.sort(key=lambda s: s.id != state.id)
         return picked
 
     def accept_many(self, states: Sequence[ProposalState]) -> list[Decision]:

@@ -180,6 +180,24 @@ def table_cell_texts(table: Table, *, row: int | None, col: int | None) -> list[
     return grid
 
 
+def fit_widths(natural: list[int], budget: int, *, minimum: int = 5) -> list[int]:
+    """Column widths that fit ``budget`` characters: the widest columns give way first.
+
+    Columns narrower than the cap keep their natural width; wider ones are capped (their cells
+    wrap), so no column is ever cut off part-way by a horizontal scroll.
+    """
+    if sum(natural) <= budget or not natural:
+        return list(natural)
+    low, high = minimum, max(natural)
+    while low < high:  # the largest cap whose total fits
+        cap = (low + high + 1) // 2
+        if sum(min(width, cap) for width in natural) <= budget:
+            low = cap
+        else:
+            high = cap - 1
+    return [max(min(width, low), min(width, minimum)) for width in natural]
+
+
 def describe_cell(table: Table, row: int, col: int) -> str:
     """The cell's place in words: "row label × column header" as the table prints them."""
     label = table.row_label(row) or f"row {row}"

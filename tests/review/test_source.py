@@ -10,6 +10,7 @@ from extract.review.source import (
     describe_cell,
     find_table,
     find_value,
+    fit_widths,
     locate_text,
     mark_text,
     split_sentences,
@@ -127,3 +128,10 @@ def test_prefill_from_sentence_carries_context_from_the_shown_proposal() -> None
     assert (draft.value, draft.unit) == (512.0, "bpm")
     assert (draft.subject, draft.time_point) == ("Tolvar mice", "week 8")
     assert draft.source.quote.startswith("Heart rate") and draft.source.page == 1
+
+
+def test_fit_widths_narrows_the_widest_columns_first() -> None:
+    assert fit_widths([10, 20, 30], 100) == [10, 20, 30]  # fits: unchanged
+    widths = fit_widths([10, 20, 30], 45)
+    assert sum(widths) <= 45 and widths[0] == 10  # the narrow column keeps its width
+    assert widths[1] == widths[2] == 17

@@ -67,7 +67,7 @@ class EditScreen(ModalScreen[Proposal | None]):
             yield Static(id="unit-hint")
             yield Static(id="form-errors")
             yield Static(
-                "enter or ctrl+s saves · escape cancels · tab moves · spread pairs as low-high",
+                "enter or ctrl+s saves · escape cancels · tab: next field · pairs as low-high",
                 classes="hint",
             )
 

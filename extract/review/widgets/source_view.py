@@ -19,6 +19,7 @@ from extract.records.proposal import Proposal
 from extract.review.source import (
     describe_cell,
     find_table,
+    fit_widths,
     locate_text,
     mark_text,
     page_label,
@@ -127,17 +128,37 @@ class TextSource(Static, can_focus=True):
 class TableSource(DataTable[Text]):
     """A table drawn as a grid; header rows and the label column stay in view while scrolling."""
 
+    shown: tuple[Table, int, int] | None = None
+
     def load(self, table: Table, *, row: int, col: int) -> None:
-        """Draw the table with the cell at (row, col) marked and put the cursor on it."""
+        """Draw the table with the cell at (row, col) marked and put the cursor on it.
+
+        Columns are narrowed to fit the panel (long cells wrap onto more lines) so that a
+        column is never shown cut off at its left edge, where "104.2" could read as "4.2".
+        """
         self.clear(columns=True)
+        self.shown = (table, row, col)
         self.fixed_rows = table.header_rows
-        self.fixed_columns = 1 if table.n_cols > 1 else 0
+        self.fixed_columns = 0
         self.table_shown = table
-        for c in range(table.n_cols):
-            self.add_column(str(c), key=str(c))
-        for r, cells in enumerate(table_cell_texts(table, row=row, col=col)):
-            self.add_row(*cells, key=str(r))
+        grid = table_cell_texts(table, row=row, col=col)
+        natural = [
+            max((cells[c].cell_len for cells in grid), default=1) for c in range(table.n_cols)
+        ]
+        width = self.size.width or max(self.app.size.width - 6, 20)
+        budget = width - 2 * self.cell_padding * table.n_cols - 1
+        for c, column_width in enumerate(fit_widths(natural, budget)):
+            self.add_column(str(c), key=str(c), width=column_width)
+        for r, cells in enumerate(grid):
+            self.add_row(*cells, key=str(r), height=None)
         self.move_cursor(row=row, column=col)
+
+    def on_resize(self) -> None:
+        if self.shown is not None:
+            table, row, col = self.shown
+            cursor = self.cursor_coordinate
+            self.load(table, row=row, col=col)
+            self.move_cursor(row=cursor.row, column=cursor.column)
 
     def pick(self) -> Pick:
         """The cell under the cursor."""
