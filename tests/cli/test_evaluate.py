@@ -108,3 +108,12 @@ def test_bad_inputs_are_one_line(tmp_path: Path, gold_dir: Path) -> None:
     assert result.exit_code == 1
     assert result.output.startswith(f"Error: {bad}:1: not a proposal record")
     assert len(result.output.strip().splitlines()) == 1
+
+
+def test_help_lists_options_and_a_docs_entry() -> None:
+    result = CliRunner().invoke(main, ["evaluate", "--help"])
+    assert result.exit_code == 0
+    for option in ("--gold", "--jsonl", "--json", "--plot", "--source"):
+        assert option in result.output
+    docs = Path(__file__).resolve().parents[2] / "docs" / "accuracy.md"
+    assert "winnow evaluate --gold" in docs.read_text(encoding="utf-8")

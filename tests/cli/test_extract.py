@@ -124,3 +124,13 @@ def test_missing_input_is_one_line(tmp_path: Path) -> None:
     assert result.output.strip().splitlines() == [
         f"Error: {tmp_path / 'absent.pdf'}: no such file or folder"
     ]
+
+
+def test_help_lists_options_the_caution_and_a_docs_entry() -> None:
+    result = CliRunner().invoke(main, ["extract", "--help"])
+    assert result.exit_code == 0
+    for option in ("--db", "--jsonl", "--workers", "--timeout"):
+        assert option in result.output
+    assert "clinical decisions" in " ".join(result.output.split())
+    docs = Path(__file__).resolve().parents[2] / "docs" / "proposal-record.md"
+    assert "winnow extract" in docs.read_text(encoding="utf-8")
