@@ -22,7 +22,9 @@ install: $(VENV)/.installed
 install-dev: $(VENV)/.installed-dev
 
 demo: $(VENV)/.installed
-	$(WINNOW) parse $(DEMO_ARTICLES)
+	$(WINNOW) extract $(DEMO_ARTICLES) --db $(DEMO_DB)
+	@echo
+	@echo "Review the proposals as a curator:  $(WINNOW) review --db $(DEMO_DB)"
 
 test: $(VENV)/.installed-dev
 	$(PY) -m pytest -q
