@@ -48,6 +48,7 @@ _GIVEN_GROUP = re.compile(
     r"|placebo|vehicle|saline|control)\b",
 )
 _GIVEN_GROUP_ANYWHERE = re.compile(_GIVEN_GROUP.pattern.removeprefix("^[^;]*?"))
+_DOSE = re.compile(r"\d\s*(?:mg|µg|μg|ug|g|mL|nmol|µmol|μmol|mmol|IU|U|mM|µM|μM|nM)\b")
 #: A lowercase group before its noun: "control minipigs", "vehicle-treated mice".
 _WORD_GROUP = re.compile(
     r"\b(?P<g>control|vehicle|placebo|sham|saline|untreated)(?:-treated)?\s+[a-z]+\b"
@@ -109,6 +110,19 @@ def _group_before(text: str, mentions: list[ContextMention], start: int, value: 
     for match in _WORD_GROUP.finditer(text, start, value):
         found.append((match.start(), match["g"] or match["t"]))
     return max(found)[1] if found else None
+
+
+def _intervention(
+    mentions: list[ContextMention], group: str | None, span: _Span, start: int
+) -> str | None:
+    """The data point's treatment: its group when the group names a dose, else the nlp
+    intervention mention in the data point's own stretch of the sentence."""
+    if group and _DOSE.search(group):
+        return group
+    for mention in mentions:
+        if mention.kind == "intervention" and start <= mention.start < span.end:
+            return mention.value
+    return None
 
 
 def _n_for(
@@ -209,7 +223,7 @@ def sentence_drafts(
             location=(block.index, quantity.start),
             method=context.get("method"),
             subject=context.get("subject"),
-            intervention=context.get("intervention"),
+            intervention=_intervention(mentions, group, span, previous_end),
         ).with_found("value", "value")
         if outcome:
             draft = draft.with_found("outcome", "sentence")

@@ -20,9 +20,11 @@ import re
 from dataclasses import dataclass, field
 
 from extract.ingest.document import Document
+from extract.nlp.context import ContextMention, find_context, load_lexicon
 from extract.nlp.quantities import find_dispersion_statement
+from extract.nlp.sample_size import find_sample_sizes
 from extract.records.draft import FOUND_WEIGHTS, Draft
-from extract.records.patterns import find_group_n
+from extract.records.patterns import find_group_n, group_and_n, read_cell
 from extract.records.proposal import Dispersion, Proposal, make_id
 from extract.records.stats import derive_sd
 from extract.units import normalize
@@ -43,6 +45,17 @@ _GROUP_N_STATEMENT = re.compile(
     re.I,
 )
 _DOSE = re.compile(r"\d\s*(?:mg|µg|μg|ug|g|mL|nmol|µmol|μmol|mmol|IU|U)\s*/\s*(?:kg|day|d)\b", re.I)
+
+
+_TIME_VALUED = re.compile(r"(?:h|hours?|min|minutes?|days?|weeks?|months?|years?)", re.I)
+#: Subject words that name no species or population ("Animals." as a paragraph heading).
+_GENERIC_SUBJECTS = frozenset("animals subjects participants individuals samples".split())
+_KEY_LEAD = frozenset("the and in of with given receiving all".split())
+_KEY_TAIL = frozenset("group groups arm arms cohort".split())
+#: Subject nouns that follow a group name ("control minipigs"), from the nlp subject lexicon.
+_SUBJECT_WORDS = frozenset(w.lower() for w in load_lexicon("subjects")) | frozenset(
+    "cells cultures wells animals".split()
+)
 
 
 @dataclass(frozen=True)
@@ -66,6 +79,8 @@ class ArticleContext:
     dispersion_kind: str | None = None
     statistic: str | None = None
     subject: str | None = None
+    method: str | None = None
+    time_point: str | None = None
 
 
 def article_id(document: Document) -> str:
@@ -82,12 +97,9 @@ def read_context(document: Document, *, subject: str | None = None) -> ArticleCo
     methods = " ".join(b.text for b in document.blocks if b.section == "methods")
     everything = " ".join(b.text for b in document.blocks if b.section != "references")
     kind = find_dispersion_statement(methods) or find_dispersion_statement(everything)
+    mentions = find_context(methods) if methods else []
     n_per_group = find_group_n(methods)
-    group_n: dict[str, int] = {}
-    for match in _GROUP_N_STATEMENT.finditer(methods):
-        name = _group_key(match.group(1))
-        if name and name not in group_n:
-            group_n[name] = int(match.group(2))
+    group_n = _stated_group_sizes(document, methods)
     statistic = None
     if re.search(r"\bmedians?\b[^.]{0,40}(?:IQR|interquartile|range)", methods, re.I):
         statistic = "median"
@@ -100,15 +112,68 @@ def read_context(document: Document, *, subject: str | None = None) -> ArticleCo
         group_n=group_n,
         dispersion_kind=kind,
         statistic=statistic,
-        subject=subject,
+        subject=subject or _methods_subject(mentions),
+        method=next((m.value for m in mentions if m.kind == "method"), None),
+        time_point=_methods_time_point(mentions),
     )
+
+
+def _methods_subject(mentions: list[ContextMention]) -> str | None:
+    """The study's subjects as the methods first describe them: the most specific of the first
+    mentions ("male 8-week-old mice" rather than a heading's "Animals")."""
+    subjects = [m for m in mentions if m.kind == "subject"][:3]
+    if not subjects:
+        return None
+    return max(
+        subjects,
+        key=lambda m: (m.value.lower() not in _GENERIC_SUBJECTS, len(m.value.split()), -m.start),
+    ).value
+
+
+def _methods_time_point(mentions: list[ContextMention]) -> str | None:
+    """When the methods say the outcomes were taken ("samples taken at week 6", "at 48 h");
+    durations ("for 12 weeks", "10 min") are not time points of the data."""
+    for mention in mentions:
+        if mention.kind == "time_point" and (
+            mention.text.lower().startswith("at ")
+            or re.fullmatch(r"(?:week|day|month|hour|visit) \d+", mention.value)
+        ):
+            return mention.value
+    return None
+
+
+def _stated_group_sizes(document: Document, methods: str) -> dict[str, int]:
+    """Each group's n as the article states it once: "vehicle (n = 9)" in the methods, a table
+    header "Control (n = 4)", a results sentence "control minipigs (n = 6)". The first statement
+    of a group wins (methods, then tables, then the rest of the text in reading order)."""
+    group_n: dict[str, int] = {}
+
+    def add(name: str | None, n: int | None) -> None:
+        key = _group_key(name or "")
+        if key and n and key not in group_n:
+            group_n[key] = n
+
+    for match in _GROUP_N_STATEMENT.finditer(methods):
+        add(match.group(1), int(match.group(2)))
+    for table in document.tables:
+        for cell in table.cells:
+            name, n = group_and_n(cell.text)
+            if n is not None and re.search(r"[A-Za-z]", name) and read_cell(cell.text) is None:
+                add(name, n)
+    for block in document.blocks:
+        if block.section == "references" or not re.search(r"\bn\s*=", block.text):
+            continue
+        for size in find_sample_sizes(block.text):
+            if size.scope == "group":
+                add(size.group, size.n)
+    return group_n
 
 
 def _group_key(text: str) -> str:
     words = re.sub(r"[^\w/ .-]", " ", text.lower()).split()
-    while words and words[0] in ("the", "and", "in", "of", "with"):
+    while words and words[0] in _KEY_LEAD:
         words = words[1:]
-    while words and words[-1] in ("group", "groups", "arm"):
+    while words and (words[-1] in _KEY_TAIL or words[-1] in _SUBJECT_WORDS):
         words = words[:-1]
     return " ".join(words)
 
@@ -120,7 +185,12 @@ def link_n(draft: Draft, context: ArticleContext) -> Draft:
     if draft.group:
         key = _group_key(draft.group)
         for name, n in context.group_n.items():
-            if key and (key == name or key in name.split(" / ") or name.endswith(key)):
+            if key and (
+                key == name
+                or key in name.split(" / ")
+                or name.endswith(" " + key)
+                or key.endswith(" " + name)
+            ):
                 return draft.with_found("n", "document", n=n)
     if context.n_per_group is not None:
         return draft.with_found("n", "methods", n=context.n_per_group).with_flag("n_from_methods")
@@ -197,6 +267,15 @@ def finish(draft: Draft, context: ArticleContext) -> Proposal:
         else None
     )
     sd = derive_sd(dispersion, draft.n)
+    if (
+        draft.time_point is None
+        and context.time_point is not None
+        and not _TIME_VALUED.fullmatch(draft.unit or "")
+    ):
+        # A time-to-event value ("median 6 weeks") has no time point of its own.
+        draft = draft.with_found("time_point", "methods", time_point=context.time_point).with_flag(
+            "time_point_from_methods"
+        )
     intervention = draft.intervention
     if intervention is None and draft.group and _DOSE.search(draft.group):
         intervention = draft.group
@@ -216,7 +295,7 @@ def finish(draft: Draft, context: ArticleContext) -> Proposal:
         sd=round(sd, 6) if sd is not None else None,
         n=draft.n,
         time_point=draft.time_point,
-        method=draft.method,
+        method=draft.method or context.method,
         subject=draft.subject or context.subject,
         intervention=intervention,
         source=draft.source,

@@ -122,6 +122,6 @@ def find_group_n(text: str) -> int | None:
 def find_n(text: str) -> int | None:
     """The first single n a text states ("n = 9"; not a range such as "n = 8-10")."""
     for size in find_sample_sizes(text):
-        if size.n is not None and size.scope != "total":
+        if size.n is not None and size.scope != "total" and re.match(r"[nN]\b", size.text):
             return size.n
     return None

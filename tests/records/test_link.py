@@ -70,3 +70,44 @@ def test_confidence_in_range_and_higher_for_nearer_n() -> None:
     )
     header_n, methods_n = first_pass(document)
     assert 0.0 <= methods_n.confidence < header_n.confidence <= 1.0
+
+
+def test_group_n_from_another_tables_header() -> None:
+    # A baseline table's "Placebo (n = 105)" gives the arm's n to later tables (CONSORT 2010,
+    # item 16: numbers analysed per group, reported once per arm).
+    baseline = make_table(
+        [["Characteristic", "Placebo (n = 105)", "QRV 10 mg (n = 97)"], ["Age", "51.7", "51.3"]]
+    )
+    outcomes = make_table(
+        [["Arm", "Systolic pressure (mmHg)"], ["Placebo", "131 ± 9"], ["QRV 10 mg", "133 ± 8"]],
+        label="Table 2",
+    )
+    document = make_document([("results", "See tables.")], tables=(baseline, outcomes))
+    found = {(p.source.table, p.group): p.n for p in first_pass(document)}
+    assert found[("Table 2", "Placebo")] == 105
+    assert found[("Table 2", "QRV 10 mg")] == 97
+
+
+def test_methods_give_time_point_subject_and_method() -> None:
+    document = make_document(
+        [
+            ("methods", "Animals. Male Tallow-Creek mice were housed in pairs."),
+            ("methods", "Samples taken at week 6 were read on a Corvane 400 analyser."),
+            ("results", "Liver mass was 1.24 ± 0.11 g in the vehicle group."),
+        ]
+    )
+    (proposal,) = first_pass(document)
+    assert proposal.time_point == "week 6" and "time_point_from_methods" in proposal.flags
+    assert proposal.subject is not None and "mice" in proposal.subject
+    assert proposal.method == "Corvane 400 analyser"
+
+
+def test_time_to_event_value_gets_no_methods_time_point() -> None:
+    document = make_document(
+        [
+            ("methods", "Samples taken at week 12 were analysed."),
+            ("results", "The time to response was median 6 weeks (IQR 5–8)."),
+        ]
+    )
+    (proposal,) = first_pass(document)
+    assert proposal.time_point is None
