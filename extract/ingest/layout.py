@@ -13,17 +13,19 @@ import re
 from collections.abc import Sequence
 from dataclasses import dataclass
 
+from extract.ingest.sections import caption_label
 from extract.ingest.words import RawWord
 
 #: A gap wider than this many font sizes splits a line into two (column gutter, table cell).
 LINE_GAP_EM = 1.5
+#: ... unless a neighbouring gap is as wide within this many font sizes (justified text).
+JUSTIFIED_SLACK_EM = 0.05
 #: Share of the page height at top and bottom where running headers and footers live.
 MARGIN_SHARE = 0.09
 #: Lines needed on each side of a gutter before a page counts as two-column.
 MIN_COLUMN_LINES = 4
 
 _NUMBER = re.compile(r"^\d{1,4}$")
-_STARTS_BLOCK = re.compile(r"^(Table|Fig\.?|Figure)\s+S?\d+", re.IGNORECASE)
 _PAGE_NUMBER = re.compile(r"^(page\s*)?\d{1,4}(\s*(of|/)\s*\d{1,4})?$", re.IGNORECASE)
 
 
@@ -72,6 +74,11 @@ class Line:
         return bold * 2 > sum(len(w.text) for w in self.words)
 
 
+def starts_caption(line: Line) -> bool:
+    """Whether the line opens a table or figure caption (label in bold or set off)."""
+    return caption_label(line.text, bold=line.words[0].bold) is not None
+
+
 def words_to_lines(words: Sequence[RawWord], page: int) -> list[Line]:
     """Lines from words (upright words only), split at gaps wider than :data:`LINE_GAP_EM`.
 
@@ -98,11 +105,17 @@ def words_to_lines(words: Sequence[RawWord], page: int) -> list[Line]:
     lines: list[Line] = []
     for row in rows:
         row.sort(key=lambda w: w.x0)
+        gaps = [b.x0 - a.x1 for a, b in zip(row, row[1:], strict=False)]
         current = [row[0]]
-        for word in row[1:]:
+        for i, word in enumerate(row[1:]):
             prev = current[-1]
             size = max(prev.size, word.size, 4.0)
-            if word.x0 - prev.x1 > LINE_GAP_EM * size:
+            gap = gaps[i]
+            # a justified line spreads its words with equal wide gaps: a wide gap equal to a
+            # neighbouring one is word spacing, not a column or cell boundary
+            near = gaps[max(i - 1, 0) : i] + gaps[i + 1 : i + 2]
+            justified = any(abs(g - gap) <= JUSTIFIED_SLACK_EM * size for g in near)
+            if gap > LINE_GAP_EM * size and not justified:
                 lines.append(Line(tuple(current), page))
                 current = [word]
             else:
@@ -110,6 +123,36 @@ def words_to_lines(words: Sequence[RawWord], page: int) -> list[Line]:
         lines.append(Line(tuple(current), page))
     lines.sort(key=lambda ln: (round(ln.top), ln.x0))
     return lines
+
+
+def split_at_gutter(lines: Sequence[Line], gutter: float) -> list[Line]:
+    """Lines of a two-column page regrouped at ``gutter``: one line per column and baseline.
+
+    Justified column text can leave word gaps as wide as the gutter, so a column line may have
+    been split at them, or joined to the other column's line through the gutter. Words on one
+    baseline are put back together on each side of the gutter; a row with a word across the
+    gutter stays whole (a full-width line).
+    """
+    out: list[Line] = []
+    rows: list[list[Line]] = []
+    for line in sorted(lines, key=lambda ln: (ln.bottom, ln.x0)):
+        if rows and abs(line.bottom - rows[-1][-1].bottom) <= 1.0:
+            rows[-1].append(line)
+        else:
+            rows.append([line])
+    for row in rows:
+        words = sorted((w for ln in row for w in ln.words), key=lambda w: w.x0)
+        page = row[0].page
+        left = tuple(w for w in words if w.x1 <= gutter)
+        right = tuple(w for w in words if w.x0 >= gutter)
+        if len(left) + len(right) < len(words) or (
+            left and right and right[0].x0 - left[-1].x1 < max(left[-1].size, 4.0)
+        ):
+            out.extend(row)  # a word across the gutter, or only a word space there
+            continue
+        out.extend(Line(part, page) for part in (left, right) if part)
+    out.sort(key=lambda ln: (round(ln.top), ln.x0))
+    return out
 
 
 def drop_line_numbers(words: list[RawWord]) -> list[RawWord]:
@@ -195,7 +238,7 @@ def reading_order(lines: Sequence[Line], gutter: float | None) -> list[tuple[Lin
             and abs(line.x0 - last_full.x0) <= 2
             and 0 <= line.top - last_full.bottom < 0.6 * max(line.size, 4.0)
         )
-        caption = bool(_STARTS_BLOCK.match(line.text)) and alone(line)
+        caption = starts_caption(line) and alone(line)
         if line.x0 < gutter < line.x1 or (line.x1 <= gutter and (tail or caption)):
             last_full = line
             flush()
@@ -280,7 +323,7 @@ def _continues(current: list[Line], line: Line, same_column: bool, body_size: fl
     prev = current[-1]
     if not same_column or line.page != prev.page:
         return False
-    if _STARTS_BLOCK.match(line.text) or prev.bold != line.bold:
+    if starts_caption(line) or prev.bold != line.bold:
         return False
     if abs(line.size - prev.size) > 0.6:
         return False

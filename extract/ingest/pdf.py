@@ -37,6 +37,7 @@ from extract.ingest.layout import (
     lines_to_blocks,
     margin_key,
     reading_order,
+    split_at_gutter,
     words_to_lines,
 )
 from extract.ingest.sections import (
@@ -179,7 +180,11 @@ def _plausible(tables: list[RawTable], lines: list[Line], height: float) -> list
 
     Boxes, frames and shaded panels drawn around ordinary text are not tables.
     """
-    captions = [ln for ln in lines if (c := caption_label(ln.text)) and c[0].startswith("Table")]
+    captions = [
+        ln
+        for ln in lines
+        if (c := caption_label(ln.text, bold=ln.words[0].bold)) and c[0].startswith("Table")
+    ]
     kept = []
     for table in tables:
         filled = sum(1 for row in table.rows for text in row if text.strip())
@@ -239,6 +244,8 @@ def _assemble(path: Path, pages: list[_PageData], options: PDFSettings) -> Docum
     for page in pages:
         gutter = find_gutter(page.lines, page.width)
         page.columns = 2 if gutter is not None else 1
+        if gutter is not None:
+            page.lines = split_at_gutter(page.lines, gutter)
         ordered = reading_order(page.lines, gutter)
         page_blocks = lines_to_blocks(ordered, body_size=body_size)
         if options.tables:
@@ -251,7 +258,7 @@ def _assemble(path: Path, pages: list[_PageData], options: PDFSettings) -> Docum
     for page in pages:
         blocks = [(i, b) for i, b in enumerate(raw_blocks) if b.page == page.number]
         for i, block in blocks:
-            found = caption_label(block.text)
+            found = _block_caption(block)
             if found:
                 kinds[i] = ("caption", found[0])
         for table in page.tables:
@@ -261,7 +268,7 @@ def _assemble(path: Path, pages: list[_PageData], options: PDFSettings) -> Docum
                 linked.add(cap[0])
                 label = kinds[cap[0]][1] or ""
                 caption = caption_text(cap[1].text)
-                continued = bool(caption_label(cap[1].text) and caption_label(cap[1].text)[1])  # type: ignore[index]
+                continued = bool((_block_caption(cap[1]) or ("", False))[1])
             notes = _footnotes_for(table, blocks, kinds, label, body_size)
             tables_out.append((table, label, caption, notes, continued))
 
@@ -307,7 +314,7 @@ def _unruled_tables(page: _PageData, blocks: list[RawBlock]) -> list[RawBlock]:
     """Look below each "Table N" caption with no table under it for an unruled table."""
     out = list(blocks)
     for block in blocks:
-        found = caption_label(block.text)
+        found = _block_caption(block)
         if not found or not found[0].startswith("Table"):
             continue
         x0, top, x1, bottom = block.bbox
@@ -316,9 +323,7 @@ def _unruled_tables(page: _PageData, blocks: list[RawBlock]) -> list[RawBlock]:
         if any(t.bbox[3] <= top + 2 and top - t.bbox[3] < 30 for t in page.tables):
             continue
         later = [t.bbox[1] for t in page.tables if t.bbox[1] > bottom] + [
-            b.bbox[1]
-            for b in blocks
-            if b is not block and b.bbox[1] > bottom and caption_label(b.text)
+            b.bbox[1] for b in blocks if b is not block and b.bbox[1] > bottom and _block_caption(b)
         ]
         limit = min(later, default=page.height)
         if block.column:
@@ -338,6 +343,11 @@ def _unruled_tables(page: _PageData, blocks: list[RawBlock]) -> list[RawBlock]:
         page.tables.append(table)
         out = [b for b in out if not all(_line_in(ln, table.bbox) for ln in b.lines)]
     return out
+
+
+def _block_caption(block: RawBlock) -> tuple[str, bool] | None:
+    """The caption label a block opens with, if its label is set off as a caption's is."""
+    return caption_label(block.text, bold=block.lines[0].words[0].bold)
 
 
 def _line_in(line: Line, box: BBox) -> bool:
@@ -450,17 +460,27 @@ def _blocks_and_sections(
         if last < first:
             continue
         members = blocks[first : last + 1]
+        # a section runs over the pages of its own text; floats (tables, their captions and
+        # notes) and subheadings such as a "Tables" page heading do not extend it
+        text = [b for b in members[1:] if _is_section_text(b)] or members
         sections.append(
             Section(
                 name=name,
                 heading=head,
                 page_start=members[0].page,
-                page_end=max(b.page or 0 for b in members),
+                page_end=max(b.page or 0 for b in [members[0], *text]),
                 first_block=first,
                 last_block=last,
             )
         )
     return blocks, sections, title
+
+
+def _is_section_text(block: Block) -> bool:
+    """Whether a block is running text of its section (paragraphs and figure legends)."""
+    if block.kind == "caption":
+        return (block.label or "").startswith("Figure")
+    return block.kind in ("paragraph", "title")
 
 
 def _title_index(

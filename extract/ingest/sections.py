@@ -65,15 +65,25 @@ def heading_section(text: str) -> str | None:
     return None
 
 
-def caption_label(text: str) -> tuple[str, bool] | None:
+def caption_label(text: str, *, bold: bool = True) -> tuple[str, bool] | None:
     """``("Table 1", continued)`` for a caption's first words, else ``None``.
+
+    A caption's label is set apart: printed in bold, or followed by punctuation ("Table 1.",
+    "Figure 2:"), "(continued)" or nothing. With ``bold=False`` a label run into a sentence
+    ("Table 1 summarises ...") is body text, not a caption.
 
     >>> caption_label("Table 2 (continued)")
     ('Table 2', True)
+    >>> caption_label("Table 1 summarises the data", bold=False) is None
+    True
     """
     match = CAPTION.match(text)
     if not match:
         return None
+    if not bold and not match.group("cont"):
+        rest = text[match.end("num") :].lstrip()
+        if rest and rest[0] not in ".:|-–—":
+            return None
     kind = match.group("kind").lower()
     name = "Table" if kind.startswith("table") else "Figure"
     return f"{name} {match.group('num')}", bool(match.group("cont"))
