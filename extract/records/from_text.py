@@ -27,6 +27,7 @@ from extract.nlp.sample_size import SampleSize
 from extract.records.draft import Draft
 from extract.records.patterns import find_group_n
 from extract.records.proposal import Source
+from extract.units import is_known_unit
 
 #: The extractor that reads sentences (the records-level reader over the nlp components).
 EXTRACTOR = "text.sentences@1"
@@ -70,10 +71,13 @@ class _Span:
 def is_debris(text: str) -> bool:
     """True for text made only of numbers and units (table cells left in the text flow).
 
-    A sentence has at least one plain word ("was", "Values"); "18.8 (1.8) nmol/mg 19.5 (2.6)
-    nmol/mg" and "1211 (196) RFU" have none.
+    A sentence has at least one lowercase word that is no unit ("was", "are"); "18.8 (1.8)
+    nmol/mg 19.5 (2.6) nmol/mg", "1211 (196) RFU" and a row "Hour 30 42.0 ± 3.7" have none.
     """
-    return not any(re.fullmatch(r"[A-Za-z][a-z]{2,}[.,;:]?", word) for word in text.split())
+    return not any(
+        re.fullmatch(r"[a-z]{3,}[.,;:]?", word) and not is_known_unit(word.rstrip(".,;:"))
+        for word in text.split()
+    )
 
 
 def is_data_point(quantity: Quantity, outcome: ContextMention | None, text: str) -> bool:

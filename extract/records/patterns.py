@@ -14,6 +14,7 @@ from dataclasses import replace
 
 from extract.nlp.quantities import Quantity, parse_cell
 from extract.nlp.sample_size import find_sample_sizes
+from extract.units import is_known_unit
 
 _MARKS = "*†‡§#¶"
 _EMPTY_CELL = re.compile(r"^(?:|[-\u2013\u2014\u2212.]+|n\.?\s?[ad]\.?|na|nd|ns|n/a|–)$", re.I)
@@ -69,7 +70,8 @@ def split_label(label: str) -> tuple[str, str | None]:
     """A header or row label split into its name and the unit written after it.
 
     "Body mass (g)" -> ("Body mass", "g"); "Creatinine, mg/dL" -> ("Creatinine", "mg/dL");
-    "Vehicle (n = 9)" -> ("Vehicle (n = 9)", None): a sample size is not a unit.
+    "Vehicle (n = 9)" -> ("Vehicle (n = 9)", None): a sample size is not a unit, nor is a
+    score band "Severe (20–27)" or an alternative name "Burma (Myanmar)".
     """
     label = _STAT_SUFFIX.sub("", " ".join(label.split()))
     match = _UNIT_IN_LABEL.match(label)
@@ -89,6 +91,8 @@ def split_label(label: str) -> tuple[str, str | None]:
         or len(unit) > 16
         or (match["c"] is not None and " " in unit)
         or _dispersion_only(unit)
+        or not re.search(r"[A-Za-zµμ%°]", unit)
+        or (re.fullmatch(r"[A-Z][a-z]{3,}", unit) and not is_known_unit(unit))
     ):
         return label, None
     return match["name"].strip(), unit

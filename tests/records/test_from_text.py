@@ -159,6 +159,7 @@ def test_bare_value_needs_a_named_outcome() -> None:
     [
         ("18.8 (1.8) nmol/mg 19.5 (2.6) nmol/mg", True),
         ("1211 (196) RFU", True),
+        ("Hour 30 42.0 ± 3.7", True),
         ("Liver mass was 1.24 g.", False),
         ("Values are mean ± SEM.", False),
     ],

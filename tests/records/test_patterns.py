@@ -67,6 +67,9 @@ def test_read_cell_keeps_a_unit_the_registry_lacks() -> None:
         ("Glucose [mmol/L]", ("Glucose", "mmol/L")),
         ("Vehicle (n = 9)", ("Vehicle (n = 9)", None)),
         ("Mean (SEM)", ("Mean (SEM)", None)),
+        ("Severe (20–27)", ("Severe (20–27)", None)),
+        ("Burma (Myanmar)", ("Burma (Myanmar)", None)),
+        ("Caspase activity (RFU)", ("Caspase activity", "RFU")),
     ],
 )
 def test_split_label(label: str, expected: tuple[str, str | None]) -> None:
