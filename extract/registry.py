@@ -31,6 +31,8 @@ __all__ = [
 BUILTIN_MODULES: tuple[str, ...] = (
     "extract.nlp.tokenizer",
     "extract.nlp.pipeline",
+    "extract.records.from_text",
+    "extract.records.from_tables",
 )
 
 #: The catalogue registry of extractors (entry-point group ``winnow_extractors``).

@@ -17,6 +17,7 @@ from extract.nlp.quantities import Quantity, find_dispersion_statement
 from extract.records.draft import Draft
 from extract.records.patterns import find_group_n, find_n, group_and_n, read_cell, split_label
 from extract.records.proposal import Source
+from extract.registry import register_extractor
 
 #: The extractor that reads table cells.
 EXTRACTOR = "tables.cells@1"
@@ -123,6 +124,9 @@ def table_order(document: Document, table: Table, index: int) -> float:
     return float(len(document.blocks) + index)
 
 
+@register_extractor(
+    "tables.cells", 1, factory=None, description="data cells of tables, with headers, n and spread"
+)
 def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> list[Draft]:
     """One draft per data cell of ``table``, in row-major order.
 

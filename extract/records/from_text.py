@@ -27,6 +27,7 @@ from extract.nlp.sample_size import SampleSize
 from extract.records.draft import Draft
 from extract.records.patterns import find_group_n
 from extract.records.proposal import Source
+from extract.registry import register_extractor
 from extract.units import is_known_unit
 
 #: The extractor that reads sentences (the records-level reader over the nlp components).
@@ -287,6 +288,9 @@ def block_drafts(block: Block) -> list[Draft]:
     return drafts
 
 
+@register_extractor(
+    "text.sentences", 1, factory=None, description="measures in sentences, linked to their context"
+)
 def text_drafts(document: Document, *, sections: tuple[str, ...] = TEXT_SECTIONS) -> list[Draft]:
     """Drafts for every data point in the text of ``sections`` (figure legends included).
 
