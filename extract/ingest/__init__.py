@@ -3,11 +3,14 @@
 from __future__ import annotations
 
 import importlib
+import logging
 from pathlib import Path
 from typing import Any
 
 from extract.ingest.document import Document
-from extract.ingest.sniff import sniff
+from extract.ingest.sniff import SNIFF_BYTES, sniff
+
+logger = logging.getLogger(__name__)
 
 __all__ = ["Document", "read_document", "sniff"]
 
@@ -35,5 +38,10 @@ def read_document(path: str | Path, *, settings: Any = None) -> Document:
 
         return read_pdf(path, settings=settings)
     jats = importlib.import_module("extract.ingest.jats")
+    with path.open("rb") as handle:
+        head = handle.read(SNIFF_BYTES)
+    if not jats.is_jats_bytes(head):
+        logger.debug("%s: XML without a JATS article head; the JATS reader says why", path)
+    # the JATS reader reads a JATS article and names the reason for any other XML
     document: Document = jats.read_jats(path)
     return document

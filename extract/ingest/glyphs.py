@@ -90,10 +90,11 @@ def _chars_of(tp: object, height: float) -> list[Char]:
     matrix = raw.FS_MATRIX()
     is_generated = raw.FPDFText_IsGenerated
     loose_box = raw.FPDFText_GetLooseCharBox
-    get_matrix = raw.FPDFText_GetMatrix
-    font_size = raw.FPDFText_GetFontSize
-    font_weight = raw.FPDFText_GetFontWeight
+    text_object = _TEXT_OBJECT_ADDRESS
+    # size, weight and matrix belong to a character's text object: ask once per object
+    styles: dict[int | None, tuple[bool, float, bool, float]] = {}
     chars: list[Char] = []
+    append = chars.append
     pending_gap = False
     for i in range(count):
         code = units[i]
@@ -117,19 +118,18 @@ def _chars_of(tp: object, height: float) -> list[Char]:
             pending_gap = False
             prev = chars[-1]
             if text != " " and rect.left - prev.x1 > GAP_RATIO * prev.size:
-                chars.append(prev._replace(text=" ", x0=prev.x1))
-        get_matrix(tp, i, matrix)
-        a, b, c, d = matrix.a, matrix.b, matrix.c, matrix.d
-        upright = a * d > 0 and b * c <= 0
-        bold = font_weight(tp, i) >= _BOLD_WEIGHT
+                append(prev._replace(text=" ", x0=prev.x1))
+        key = text_object(tp, i)
+        style = styles.get(key)
+        if style is None:
+            style = styles[key] = _style_of(tp, i, matrix)
+        upright, size, bold, _ = style
         if upright:
-            size = font_size(tp, i) * math.hypot(c, d)
             bottom = height - rect.bottom
             top = bottom - size if size > 0 else height - rect.top
-            chars.append(Char(text, rect.left, top, rect.right, bottom, size, bold, True))
+            append(Char(text, rect.left, top, rect.right, bottom, size, bold, True))
         else:
-            size = font_size(tp, i) * math.hypot(a, b)
-            chars.append(
+            append(
                 Char(
                     text,
                     rect.left,
@@ -142,6 +142,24 @@ def _chars_of(tp: object, height: float) -> list[Char]:
                 )
             )
     return chars
+
+
+def _style_of(tp: object, i: int, matrix: object) -> tuple[bool, float, bool, float]:
+    """(upright, size in page space, bold, raw font size) of character ``i``'s text object."""
+    raw.FPDFText_GetMatrix(tp, i, matrix)
+    a, b, c, d = matrix.a, matrix.b, matrix.c, matrix.d  # type: ignore[attr-defined]
+    upright = a * d > 0 and b * c <= 0
+    font_size = raw.FPDFText_GetFontSize(tp, i)
+    size = font_size * (math.hypot(c, d) if upright else math.hypot(a, b))
+    bold = raw.FPDFText_GetFontWeight(tp, i) >= _BOLD_WEIGHT
+    return upright, size, bold, font_size
+
+
+#: FPDFText_GetTextObject returning the object's address as an int (a hashable cache key).
+_TEXT_OBJECT_ADDRESS = ctypes.cast(
+    raw.FPDFText_GetTextObject,
+    ctypes.CFUNCTYPE(ctypes.c_void_p, ctypes.c_void_p, ctypes.c_int),
+)
 
 
 def _is_bold(obj: object) -> bool:

@@ -9,9 +9,11 @@ between two full-width lines is read left column first, then right.
 
 from __future__ import annotations
 
+import bisect
 import re
 from collections.abc import Sequence
 from dataclasses import dataclass
+from functools import cached_property
 
 from extract.ingest.sections import caption_label
 from extract.ingest.words import RawWord
@@ -36,38 +38,38 @@ class Line:
     words: tuple[RawWord, ...]
     page: int
 
-    @property
+    @cached_property
     def text(self) -> str:
         """The words joined by single spaces."""
         return " ".join(w.text for w in self.words)
 
-    @property
+    @cached_property
     def x0(self) -> float:
         """Left edge."""
         return self.words[0].x0
 
-    @property
+    @cached_property
     def x1(self) -> float:
         """Right edge."""
         return max(w.x1 for w in self.words)
 
-    @property
+    @cached_property
     def top(self) -> float:
         """Top edge."""
         return min(w.top for w in self.words)
 
-    @property
+    @cached_property
     def bottom(self) -> float:
         """Bottom edge."""
         return max(w.bottom for w in self.words)
 
-    @property
+    @cached_property
     def size(self) -> float:
         """The most common font size of its words."""
         sizes = [round(w.size, 1) for w in self.words]
         return max(set(sizes), key=sizes.count)
 
-    @property
+    @cached_property
     def bold(self) -> bool:
         """Whether most of its characters are bold."""
         bold = sum(len(w.text) for w in self.words if w.bold)
@@ -191,12 +193,17 @@ def find_gutter(lines: Sequence[Line], width: float) -> float | None:
     if len(narrow) < 2 * MIN_COLUMN_LINES:
         return None
     best: tuple[int, float] | None = None
+    narrow_ends = sorted(b for _, b in narrow)
+    narrow_starts = sorted(a for a, _ in narrow)
+    starts = sorted(a for a, _ in spans)
+    ends = sorted(b for _, b in spans)
     x = 0.3 * width
     while x <= 0.7 * width:
-        left = sum(1 for _, b in narrow if b <= x)
-        right = sum(1 for a, _ in narrow if a >= x)
+        left = bisect.bisect_right(narrow_ends, x)
+        right = len(narrow_starts) - bisect.bisect_left(narrow_starts, x)
         if left >= MIN_COLUMN_LINES and right >= MIN_COLUMN_LINES:
-            crossing = sum(1 for a, b in spans if a < x < b)
+            # spans with a < x < b: those starting left of x less those ending at or before it
+            crossing = bisect.bisect_left(starts, x) - bisect.bisect_right(ends, x)
             score = min(left, right) * 2 - crossing * 3
             if crossing <= 0.4 * (left + right) and (best is None or score > best[0]):
                 best = (score, x)

@@ -31,6 +31,10 @@ _UNIT_CHARS = re.compile(r"^[%A-Za-zµμ°Ω/·\^\-−0-9.×\s²³⁻¹]+$")
 _TRAILING_PAREN = re.compile(r"\(([^()]{1,20})\)\s*$")
 _TRAILING_BRACKET = re.compile(r"\[([^\[\]]{1,20})\]\s*$")
 _TRAILING_COMMA = re.compile(r",\s*([^,]{1,15})$")
+#: A statistic named after the unit ("Age (years), mean (SD)", "SBP (mmHg), mean [95% CI]").
+_STATISTIC_TAIL = re.compile(
+    r",\s*(mean|median|n|no\.|count|geometric mean)\b[^,]*$", re.IGNORECASE
+)
 _NOT_UNITS = {"n", "no", "yes", "mean", "sd", "sem", "se", "median", "iqr", "range", "ci", "all"}
 
 
@@ -51,8 +55,10 @@ def unit_of(label: str) -> str | None:
 
     >>> unit_of("Body mass (g)"), unit_of("Glucose, mmol/L"), unit_of("Vehicle (n = 9)")
     ('g', 'mmol/L', None)
+    >>> unit_of("Age (years), mean (SD)"), unit_of("Change in score, mean [95% CI]")
+    ('years', None)
     """
-    text = " ".join(label.split())
+    text = _STATISTIC_TAIL.sub("", " ".join(label.split()))
     for pattern in (_TRAILING_PAREN, _TRAILING_BRACKET, _TRAILING_COMMA):
         match = pattern.search(text)
         if match and _looks_like_unit(match.group(1)):

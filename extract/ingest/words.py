@@ -76,15 +76,17 @@ def _rotated_lines_of(chars: Sequence[Char], x_tolerance: float) -> list[list[Ch
 
 def _merge(chars: list[Char]) -> RawWord:
     first = chars[0]
+    if len(chars) == 1:
+        return RawWord(
+            LIGATURES.get(first.text, first.text), first.x0, first.top, first.x1, first.bottom,
+            first.size, first.bold, first.upright,
+        )  # fmt: skip
+    texts, x0s, tops, x1s, bottoms = list(zip(*chars, strict=False))[:5]
+    text = "".join(texts)
+    if not text.isascii():
+        text = "".join(LIGATURES.get(t, t) for t in texts)
     return RawWord(
-        "".join(LIGATURES.get(c.text, c.text) for c in chars),
-        min(c.x0 for c in chars),
-        min(c.top for c in chars),
-        max(c.x1 for c in chars),
-        max(c.bottom for c in chars),
-        first.size,
-        first.bold,
-        first.upright,
+        text, min(x0s), min(tops), max(x1s), max(bottoms), first.size, first.bold, first.upright
     )
 
 
@@ -93,14 +95,15 @@ def _split_line(
 ) -> list[RawWord]:
     words: list[RawWord] = []
     current: list[Char] = []
+    prev: Char | None = None
     for char in line:
         if char.text.isspace():
             if current:
                 words.append(_merge(current))
             current = []
+            prev = None
             continue
-        if current:
-            prev = current[-1]
+        if prev is not None:
             if upright:
                 new = (
                     char.x0 < prev.x0
@@ -115,9 +118,9 @@ def _split_line(
                 )
             if new:
                 words.append(_merge(current))
-                current = [char]
-                continue
+                current = []
         current.append(char)
+        prev = char
     if current:
         words.append(_merge(current))
     return words

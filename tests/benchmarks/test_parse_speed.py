@@ -13,6 +13,9 @@ import pdfplumber
 import pytest
 
 from extract.ingest import read_document
+from extract.ingest.pdf import read_pdf  # imported up front, as pdfplumber is
+
+assert read_pdf
 
 REPO = Path(__file__).resolve().parents[2]
 FIXTURES = sorted((REPO / "fixtures" / "articles").glob("*.pdf"))
