@@ -462,13 +462,13 @@ def _blocks_and_sections(
         members = blocks[first : last + 1]
         # a section runs over the pages of its own text; floats (tables, their captions and
         # notes) and subheadings such as a "Tables" page heading do not extend it
-        text = [b for b in members[1:] if _is_section_text(b)] or members
+        running = [b for b in members[1:] if _is_section_text(b)] or members
         sections.append(
             Section(
                 name=name,
                 heading=head,
                 page_start=members[0].page,
-                page_end=max(b.page or 0 for b in [members[0], *text]),
+                page_end=max(b.page or 0 for b in [members[0], *running]),
                 first_block=first,
                 last_block=last,
             )
