@@ -352,3 +352,18 @@ async def test_a_bad_proposal_is_reported_and_passed_over(store: Store, clock: F
         await pilot.press("a")
     assert state_of(store, "bad-text-0001") == "pending"
     assert decisions_of(store) == [(IDS[0], "accept"), (IDS[1], "accept"), (IDS[2], "accept")]
+
+
+async def test_edit_form_shows_the_source_quote_with_the_page(
+    store: Store, clock: FakeClock
+) -> None:
+    app = review_app(store, clock)
+    proposal = make_proposals(ARTICLE)[0]
+    async with app.run_test(size=(80, 24)) as pilot:
+        await pilot.press("e")
+        assert isinstance(app.screen, EditScreen)
+        shown = str(app.screen.query_one("#edit-source", Static).content)
+    # The curator edits while seeing where the value came from.
+    assert " ".join(proposal.source.quote.split())[:40] in shown
+    if proposal.source.page is not None:
+        assert f"p. {proposal.source.page}" in shown

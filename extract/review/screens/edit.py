@@ -22,6 +22,33 @@ from extract.review.form import (
     fields_to_proposal,
     proposal_to_fields,
 )
+from extract.review.source import find_value, page_label
+
+#: Longest quote shown above the form (the full source stays on the review screen).
+_QUOTE_CHARS = 220
+
+
+def source_line(proposal: Proposal) -> Text:
+    """The proposal's source in one or two lines, value marked, so no edit is made blind."""
+    source = proposal.source
+    where = page_label(source)
+    if source.kind == "table" and source.table:
+        where = f"{source.table}, row {source.row}, col {source.col} · {where}"
+    quote = " ".join(source.quote.split())
+    span = find_value(quote, proposal.value)
+    if len(quote) > _QUOTE_CHARS:
+        # Keep the window around the value.
+        middle = span[0] if span else 0
+        start = max(0, min(middle - _QUOTE_CHARS // 2, len(quote) - _QUOTE_CHARS))
+        quote = ("…" if start else "") + quote[start : start + _QUOTE_CHARS] + "…"
+        span = find_value(quote, proposal.value)
+    text = Text(f"{where}: ", style="#8fa1b3")
+    body = Text(quote)
+    if span is not None:
+        body.stylize("bold reverse", span[0], span[1])
+    text.append_text(body)
+    return text
+
 
 #: Fields chosen from a fixed list rather than typed.
 _CHOICES: dict[str, tuple[str, ...]] = {
@@ -50,6 +77,7 @@ class EditScreen(ModalScreen[Proposal | None]):
         values = proposal_to_fields(self.proposal)
         with Vertical(id="edit-box") as box:
             box.border_title = self.title_text
+            yield Static(source_line(self.proposal), id="edit-source")
             with Grid(id="edit-grid"):
                 for name, label in FORM_FIELDS:
                     yield Label(label, classes="form-label")
