@@ -24,6 +24,8 @@ LINE_GAP_EM = 1.5
 JUSTIFIED_SLACK_EM = 0.05
 #: Share of the page height at top and bottom where running headers and footers live.
 MARGIN_SHARE = 0.09
+#: Shortest line (share of the page width) that counts as a line of a text column.
+MIN_COLUMN_SHARE = 0.2
 #: Lines needed on each side of a gutter before a page counts as two-column.
 MIN_COLUMN_LINES = 4
 
@@ -189,7 +191,8 @@ def is_page_number(line: Line) -> bool:
 def find_gutter(lines: Sequence[Line], width: float) -> float | None:
     """The x of a two-column gutter, or ``None`` for a one-column page."""
     spans = [(ln.x0, ln.x1) for ln in lines]
-    narrow = [(a, b) for a, b in spans if b - a < 0.55 * width]
+    # a text column's lines are most of its width; short runs (table cells) are no evidence
+    narrow = [(a, b) for a, b in spans if MIN_COLUMN_SHARE * width <= b - a < 0.55 * width]
     if len(narrow) < 2 * MIN_COLUMN_LINES:
         return None
     best: tuple[int, float] | None = None

@@ -47,7 +47,8 @@ from extract.ingest.sections import (
     heading_section,
     looks_like_footnote,
 )
-from extract.ingest.tables import RawTable, find_ruled, find_rules_only, find_unruled, unit_of
+from extract.ingest.table_find import find_rules_only, find_unruled
+from extract.ingest.tables import RawTable, find_ruled, unit_of
 from extract.ingest.words import RawWord, chars_to_words
 
 logger = logging.getLogger(__name__)
@@ -241,6 +242,7 @@ class _Caption:
 def _assemble(path: Path, pages: list[_PageData], options: PDFSettings) -> Document:
     body_size = _body_size(pages)
     raw_blocks: list[RawBlock] = []
+    previous: _PageData | None = None
     for page in pages:
         gutter = find_gutter(page.lines, page.width)
         page.columns = 2 if gutter is not None else 1
@@ -249,8 +251,9 @@ def _assemble(path: Path, pages: list[_PageData], options: PDFSettings) -> Docum
         ordered = reading_order(page.lines, gutter)
         page_blocks = lines_to_blocks(ordered, body_size=body_size)
         if options.tables:
-            page_blocks = _unruled_tables(page, page_blocks)
+            page_blocks = _unruled_tables(page, page_blocks, previous)
         raw_blocks.extend(page_blocks)
+        previous = page
 
     kinds: dict[int, tuple[str, str | None]] = {}
     tables_out: list[tuple[RawTable, str, str, list[str], bool]] = []
@@ -261,7 +264,7 @@ def _assemble(path: Path, pages: list[_PageData], options: PDFSettings) -> Docum
             found = _block_caption(block)
             if found:
                 kinds[i] = ("caption", found[0])
-        for table in page.tables:
+        for table in sorted(page.tables, key=lambda t: (t.bbox[1], t.bbox[0])):
             cap = _caption_for(table, blocks, kinds, linked)
             label, caption, continued = "", "", False
             if cap is not None:
@@ -310,39 +313,97 @@ def _document_doi(blocks: list[Block], margin: tuple[str, ...]) -> str | None:
     return find_doi(text)
 
 
-def _unruled_tables(page: _PageData, blocks: list[RawBlock]) -> list[RawBlock]:
-    """Look below each "Table N" caption with no table under it for an unruled table."""
+def _unruled_tables(
+    page: _PageData, blocks: list[RawBlock], previous: _PageData | None
+) -> list[RawBlock]:
+    """Look below each "Table N" caption with no table under it for an unruled table, and at
+    the top of the page for a table continued from the page before."""
     out = list(blocks)
+    found: list[RawTable] = []
+    continued = _continuation(page, blocks, previous)
+    if continued is not None:
+        found.append(continued)
+        page.tables.append(continued)
     for block in blocks:
-        found = _block_caption(block)
-        if not found or not found[0].startswith("Table"):
+        caption = _block_caption(block)
+        if not caption or not caption[0].startswith("Table"):
             continue
         x0, top, x1, bottom = block.bbox
         if any(t.bbox[1] >= bottom - 2 and t.bbox[1] - bottom < 60 for t in page.tables):
             continue
-        if any(t.bbox[3] <= top + 2 and top - t.bbox[3] < 30 for t in page.tables):
+        # a caption right under a table with no caption of its own is that table's caption
+        if any(
+            t.bbox[3] <= top + 2 and top - t.bbox[3] < 30 and not _captioned_above(t, blocks)
+            for t in page.tables
+        ):
             continue
-        later = [t.bbox[1] for t in page.tables if t.bbox[1] > bottom] + [
-            b.bbox[1] for b in blocks if b is not block and b.bbox[1] > bottom and _block_caption(b)
-        ]
-        limit = min(later, default=page.height)
+        limit = _next_below(page, blocks, block, bottom)
         if block.column:
             x0, x1 = min(x0, x1 - 1), x1
         else:
             x0, x1 = 0.0, page.width
         table = find_unruled(
-            [w for w in page.words if w.upright],
-            page.number,
-            caption_bottom=bottom,
-            x0=x0,
-            x1=x1,
-            limit=limit,
+            page.words, page.number, caption_bottom=bottom, x0=x0, x1=x1, limit=limit
         )
         if table is None:
             continue
+        found.append(table)
         page.tables.append(table)
+    for table in found:
         out = [b for b in out if not all(_line_in(ln, table.bbox) for ln in b.lines)]
     return out
+
+
+def _next_below(page: _PageData, blocks: list[RawBlock], block: RawBlock | None, y: float) -> float:
+    """The top of the first table or caption below ``y`` (else the page bottom)."""
+    later = [t.bbox[1] for t in page.tables if t.bbox[1] > y] + [
+        b.bbox[1] for b in blocks if b is not block and b.bbox[1] > y and _block_caption(b)
+    ]
+    return min(later, default=page.height)
+
+
+def _captioned_above(table: RawTable, blocks: list[RawBlock]) -> bool:
+    """Whether a "Table N" caption sits right above the table."""
+    return any(
+        (c := _block_caption(b)) is not None
+        and c[0].startswith("Table")
+        and b.bbox[3] <= table.bbox[1] + 3
+        and table.bbox[1] - b.bbox[3] < 60
+        and b.bbox[0] < table.bbox[2]
+        and b.bbox[2] > table.bbox[0]
+        for b in blocks
+    )
+
+
+def _continuation(
+    page: _PageData, blocks: list[RawBlock], previous: _PageData | None
+) -> RawTable | None:
+    """An unruled table at the top of the page continuing the table that ended the page before.
+
+    The table before must run to the bottom of its page (no text below it); the rows at the top
+    of this page must have as many columns, within its left and right edges.
+    """
+    if previous is None or not previous.tables or not page.lines:
+        return None
+    last = max(previous.tables, key=lambda t: t.bbox[3])
+    if any(ln.top > last.bbox[3] + 1 for ln in previous.lines):
+        return None
+    first = min(ln.top for ln in page.lines)
+    if any(b.bbox[1] <= first + 1 and _block_caption(b) for b in blocks):
+        return None  # a caption of its own ("Table 2 (continued)") is read as any caption
+    if any(t.bbox[1] <= first + 5 for t in page.tables):
+        return None  # a table with rules already found at the top
+    table = find_unruled(
+        page.words,
+        page.number,
+        caption_bottom=first - 1,
+        x0=last.bbox[0] - 10,
+        x1=last.bbox[2] + 10,
+        limit=_next_below(page, blocks, None, first),
+    )
+    if table is None or len(table.rows[0]) != len(last.rows[0]):
+        return None
+    return replace(table, continued=True)
 
 
 def _block_caption(block: RawBlock) -> tuple[str, bool] | None:
@@ -520,7 +581,10 @@ def _merge_tables(
         if (
             prev is not None
             and raw.page == (prev.pages[-1] + 1)
-            and ((continued and label == prev.label) or (not label and _same_header(prev, raw)))
+            and (
+                (continued and label == prev.label)
+                or (not label and (raw.continued or _same_header(prev, raw)))
+            )
         ):
             merged[-1] = _append(prev, raw, notes)
             continue

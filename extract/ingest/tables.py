@@ -24,8 +24,6 @@ from extract.ingest.words import RawWord
 
 #: Points within which two rules or coordinates count as the same.
 SNAP = 3.0
-#: A cell gap wider than this many font sizes separates two table cells on one line.
-CELL_GAP_EM = 0.9
 
 _UNIT_CHARS = re.compile(r"^[%A-Za-zµμ°Ω/·\^\-−0-9.×\s²³⁻¹]+$")
 _TRAILING_PAREN = re.compile(r"\(([^()]{1,20})\)\s*$")
@@ -48,6 +46,7 @@ class RawTable:
     boxes: tuple[tuple[tuple[float, float, float, float] | None, ...], ...]
     header_rows: int
     style: str
+    continued: bool = False
 
 
 def unit_of(label: str) -> str | None:
@@ -87,7 +86,8 @@ def _cluster(values: Sequence[float], tol: float = SNAP) -> list[float]:
     return [sum(group) / len(group) for group in out]
 
 
-def _words_in(words: Sequence[RawWord], box: tuple[float, float, float, float]) -> list[RawWord]:
+def words_in(words: Sequence[RawWord], box: tuple[float, float, float, float]) -> list[RawWord]:
+    """The words whose centre lies inside ``box``."""
     x0, top, x1, bottom = box
     return [
         w
@@ -194,7 +194,7 @@ def _grid_table(
         c1 = max(m[1] for m in members)
         box = (xs[c0], ys[r0], xs[c1 + 1], ys[r1 + 1])
         boxes[key] = box
-        texts[key] = _text_of(_words_in(words, box))
+        texts[key] = _text_of(words_in(words, box))
     rows = tuple(tuple(texts[owner[r][c]] for c in range(n_cols)) for r in range(n_rows))
     cell_boxes = tuple(tuple(boxes[owner[r][c]] for c in range(n_cols)) for r in range(n_rows))
     header = _header_rows_from_spans(owner, n_rows, n_cols, rows)
@@ -221,242 +221,6 @@ _NUMERIC = re.compile(r"[-−+]?\d")
 def _is_data_row(row: Sequence[str]) -> bool:
     cells = [c for c in row[1:] if c.strip()]
     return bool(cells) and sum(1 for c in cells if _NUMERIC.search(c)) * 2 >= len(cells)
-
-
-# ------------------------------------------------- rules-only and unruled tables
-
-
-def find_rules_only(
-    words: Sequence[RawWord],
-    segments: Sequence[Segment],
-    page: int,
-    *,
-    taken: Sequence[tuple[float, float, float, float]] = (),
-) -> list[RawTable]:
-    """Tables set between full-width horizontal rules with no vertical rules."""
-    rules = sorted(
-        (s for s in segments if s.horizontal and s.x1 - s.x0 > 40),
-        key=lambda s: s.top,
-    )
-    rules = [s for s in rules if not any(_inside(s, box) for box in taken)]
-    tables: list[RawTable] = []
-    used: set[int] = set()
-    for i, first in enumerate(rules):
-        if i in used:
-            continue
-        same = [
-            j
-            for j, s in enumerate(rules)
-            if j >= i and abs(s.x0 - first.x0) <= 6 and abs(s.x1 - first.x1) <= 6
-        ]
-        if len(same) < 2:
-            continue
-        # one table: from the first rule to the last matching rule before a wide empty gap
-        members = [same[0]]
-        for j in same[1:]:
-            gap_words = _words_in(words, (first.x0, rules[members[-1]].top, first.x1, rules[j].top))
-            if not gap_words:
-                break
-            members.append(j)
-        if len(members) < 2:
-            continue
-        used.update(members)
-        top, bottom = rules[members[0]].top, rules[members[-1]].top
-        inner = [rules[j].top for j in members[1:-1]]
-        header_bottom = inner[0] if inner else None
-        box = (first.x0, top, first.x1, bottom)
-        partial = [
-            s
-            for s in segments
-            if s.horizontal and top < s.top < (header_bottom or bottom) - 1 and s.x1 - s.x0 > 10
-        ]
-        table = _table_from_text(
-            words, box, page, style="rules", header_bottom=header_bottom, span_rules=partial
-        )
-        if table is not None:
-            tables.append(table)
-    return tables
-
-
-def _inside(seg: Segment, box: tuple[float, float, float, float]) -> bool:
-    return (
-        box[0] - SNAP <= seg.x0
-        and seg.x1 <= box[2] + SNAP
-        and box[1] - SNAP <= seg.top <= box[3] + SNAP
-    )
-
-
-def find_unruled(
-    words: Sequence[RawWord],
-    page: int,
-    *,
-    caption_bottom: float,
-    x0: float,
-    x1: float,
-    limit: float,
-) -> RawTable | None:
-    """An unruled table right below a caption that ends at ``caption_bottom``.
-
-    Rows are read while lines split into two or more cells; the table ends at the first line
-    that reads as prose (one wide run of text) or at a gap of more than two line heights.
-    """
-    region = [
-        w
-        for w in words
-        if w.top >= caption_bottom - 1 and w.bottom <= limit and w.x0 >= x0 - 2 and w.x1 <= x1 + 2
-    ]
-    lines = _rows_of(region)
-    taken: list[list[RawWord]] = []
-    last_bottom = caption_bottom
-    for line in lines:
-        cells = _cells_of(line)
-        size = max(w.size for w in line)
-        if line[0].top - last_bottom > 2.2 * size and taken:
-            break
-        if len(cells) < 2 and (not taken or _wide(line, x0, x1)):
-            if taken:
-                break
-            continue
-        taken.append(line)
-        last_bottom = max(w.bottom for w in line)
-    if len(taken) < 2:
-        return None
-    flat = [w for line in taken for w in line]
-    box = (
-        min(w.x0 for w in flat),
-        min(w.top for w in flat),
-        max(w.x1 for w in flat),
-        max(w.bottom for w in flat),
-    )
-    return _table_from_text(flat, box, page, style="unruled", header_bottom=None)
-
-
-def _wide(line: list[RawWord], x0: float, x1: float) -> bool:
-    return (max(w.x1 for w in line) - min(w.x0 for w in line)) > 0.6 * (x1 - x0) and len(line) > 6
-
-
-def _rows_of(words: Sequence[RawWord]) -> list[list[RawWord]]:
-    rows: list[list[RawWord]] = []
-    for word in sorted(words, key=lambda w: (w.bottom, w.x0)):
-        if rows and abs(word.bottom - rows[-1][-1].bottom) <= max(2.0, 0.4 * word.size):
-            rows[-1].append(word)
-        else:
-            rows.append([word])
-    return [sorted(row, key=lambda w: w.x0) for row in rows]
-
-
-def _cells_of(row: list[RawWord]) -> list[list[RawWord]]:
-    cells: list[list[RawWord]] = [[row[0]]]
-    for word in row[1:]:
-        prev = cells[-1][-1]
-        if word.x0 - prev.x1 > CELL_GAP_EM * max(prev.size, 4.0):
-            cells.append([word])
-        else:
-            cells[-1].append(word)
-    return cells
-
-
-def _table_from_text(
-    words: Sequence[RawWord],
-    box: tuple[float, float, float, float],
-    page: int,
-    *,
-    style: str,
-    header_bottom: float | None,
-    span_rules: Sequence[Segment] = (),
-) -> RawTable | None:
-    inside = _words_in(words, box)
-    rows = _rows_of(inside)
-    if len(rows) < 2:
-        return None
-    n_header = (
-        sum(1 for row in rows if max(w.bottom for w in row) <= header_bottom + 1)
-        if header_bottom is not None
-        else 0
-    )
-    cell_rows = [_cells_of(row) for row in rows]
-    body = cell_rows[n_header:] if 0 < n_header < len(rows) else cell_rows
-    bounds = _column_bounds([c for row in body for c in row])
-    if len(bounds) < 2:
-        return None
-    if header_bottom is None:
-        n_header = _guess_header(cell_rows, bounds)
-    grid: list[tuple[str, ...]] = []
-    boxes: list[tuple[tuple[float, float, float, float] | None, ...]] = []
-    for r, cells in enumerate(cell_rows):
-        texts = [""] * len(bounds)
-        cboxes: list[tuple[float, float, float, float] | None] = [None] * len(bounds)
-        for cell in cells:
-            cx0 = min(w.x0 for w in cell)
-            cx1 = max(w.x1 for w in cell)
-            cols = [i for i, (b0, b1) in enumerate(bounds) if cx0 < b1 and cx1 > b0]
-            if r < n_header:
-                cbottom = max(w.bottom for w in cell)
-                centre = (cx0 + cx1) / 2
-                for rule in span_rules:
-                    if 0 <= rule.top - cbottom <= 8 and rule.x0 - 2 <= centre <= rule.x1 + 2:
-                        cols = [
-                            i for i, (b0, b1) in enumerate(bounds) if b0 < rule.x1 and b1 > rule.x0
-                        ] or cols
-            if not cols:
-                centre = (cx0 + cx1) / 2
-                cols = [min(range(len(bounds)), key=lambda i: abs(sum(bounds[i]) / 2 - centre))]
-            text = " ".join(w.text for w in cell)
-            cbox = (cx0, min(w.top for w in cell), cx1, max(w.bottom for w in cell))
-            for col in cols:
-                texts[col] = (texts[col] + " " + text).strip() if texts[col] else text
-                cboxes[col] = cbox
-        grid.append(tuple(texts))
-        boxes.append(tuple(cboxes))
-    grid, boxes = _merge_wrapped_labels(grid, boxes, n_header)
-    return RawTable(page, box, tuple(grid), tuple(boxes), n_header, style)
-
-
-def _column_bounds(cells: list[list[RawWord]]) -> list[tuple[float, float]]:
-    spans = sorted((min(w.x0 for w in c), max(w.x1 for w in c)) for c in cells)
-    merged: list[list[float]] = []
-    for x0, x1 in spans:
-        if merged and x0 <= merged[-1][1] + 1:
-            merged[-1][1] = max(merged[-1][1], x1)
-        else:
-            merged.append([x0, x1])
-    return [(a, b) for a, b in merged]
-
-
-def _guess_header(cell_rows: list[list[list[RawWord]]], bounds: list[tuple[float, float]]) -> int:
-    for i, cells in enumerate(cell_rows):
-        texts = [" ".join(w.text for w in c) for c in cells]
-        if len(texts) >= 2 and _is_data_row(texts):
-            return max(i, 1) if i < len(cell_rows) else 1
-    return 1
-
-
-def _merge_wrapped_labels(
-    grid: list[tuple[str, ...]],
-    boxes: list[tuple[tuple[float, float, float, float] | None, ...]],
-    n_header: int,
-) -> tuple[list[tuple[str, ...]], list[tuple[tuple[float, float, float, float] | None, ...]]]:
-    """Join a body row that holds only a label to the next row when that row has no label."""
-    out: list[tuple[str, ...]] = list(grid[:n_header])
-    out_boxes = list(boxes[:n_header])
-    i = n_header
-    while i < len(grid):
-        row = grid[i]
-        if (
-            i + 1 < len(grid)
-            and row[0]
-            and not any(row[1:])
-            and not grid[i + 1][0]
-            and any(grid[i + 1][1:])
-        ):
-            out.append((row[0],) + grid[i + 1][1:])
-            out_boxes.append((boxes[i][0],) + boxes[i + 1][1:])
-            i += 2
-            continue
-        out.append(row)
-        out_boxes.append(boxes[i])
-        i += 1
-    return out, out_boxes
 
 
 def raw_to_cells(table: RawTable) -> tuple[TableCell, ...]:
