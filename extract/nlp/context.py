@@ -143,7 +143,14 @@ _METHOD_PHRASE = re.compile(
 _SUBJECT_MODIFIERS = re.compile(
     r"(?<![\w-])((?:(?:(?i:male|female|adult|juvenile|aged|young|old|healthy|obese|lean|pregnant|"
     r"wild-type|transgenic|knockout)|\d+-(?:day|week|month|year)-old|[A-Z][A-Za-z0-9]*[0-9][A-Za-z0-9/-]*|"
-    r"[A-Z]{2,}[\w/-]*)\s+){1,4})$"
+    r"[A-Z]{2,}[\w/-]*|[A-Z][a-z]+(?:-[A-Z][a-z]+)*|\([A-Z][\w/-]*\))\s+){1,5})$"
+)
+#: Capitalised words before a subject noun that are no strain name ("Control mice", "All rats").
+_NOT_STRAIN = frozenset(
+    "the a an all both each every these those this that some most many several other remaining"
+    " surviving treated untreated control controls vehicle sham placebo saline naive in of for"
+    " with from to at on by and or after before during when where while no one two three four"
+    " five six seven eight nine ten eleven twelve animals subjects groups group".split()
 )
 _SUBJECT_AGE_AFTER = re.compile(
     r"^\s*,?\s*(?:aged\s+\d+(?:\s*(?:–|-|to)\s*\d+)?\s*(?:days?|weeks?|months?|years?)(?:\s+old)?|"
@@ -160,7 +167,7 @@ _INTERVENTION_PATTERNS: tuple[re.Pattern[str], ...] = (
     ),
     re.compile(
         r"\b(?:treated with|received|receiving|administered|given|dosed with|injected with|"
-        r"infused with)\s+(?:an?\s+|the\s+)?([A-Z][\w-]*(?:\s+[A-Z0-9][\w-]*)?"
+        r"infused with)\s+(?:an?\s+|the\s+)?([A-Z][\w-]*(?:\s+(?!" + _DOSE + r")[A-Z0-9][\w-]*)?"
         r"(?:\s*\(\s*" + _DOSE + r"[^)]*\)|\s*(?:at\s+)?" + _DOSE + r")?)",
     ),
     re.compile(r"\b(vehicle|placebo|saline)\b", re.I),
@@ -171,15 +178,28 @@ _GROUP_PATTERNS: tuple[re.Pattern[str], ...] = (
         r"(?:group|arm|cohort)s?\b",
         re.I,
     ),
-    re.compile(
-        r"\b([A-Z][\w]*(?:\s+[A-Z0-9][\w]*)?|vehicle|placebo|saline|sham|control)-treated\b"
-    ),
+    re.compile(r"\b([A-Z][\w]*(?:\s+[A-Z0-9][\w]*)?|[a-z]\w+)-treated\b"),
     re.compile(
         r"\b(?:vs\.?|versus|compared (?:with|to))\s+(?:the\s+)?"
         r"([A-Za-z][\w-]*(?:\s+[A-Z0-9][\w/-]*){0,3})"
         r"(?=\s*(?:group|arm|mice|rats|animals|patients|controls?)?\s*(?:[,;.)]|$))",
         re.I,
     ),
+)
+#: A group named by its treatment: "with BDC 20 mg/kg", "in rats given FTZ 40 mg/kg/day",
+#: "receiving placebo".
+_GIVEN_GROUP = re.compile(
+    r"\b(?:with|given|receiving|treated with|exposed to|on)\s+(?:the\s+)?"
+    r"([A-Z][\w-]*(?:\s+(?!" + _DOSE + r")[A-Z][\w-]*)?\s+" + _DOSE + r"(?![\w/])"
+    r"|(?i:placebo|vehicle|saline))\b"
+)
+#: A control group written before its subject noun: "control minipigs", "vehicle-treated rats".
+_CONTROL_WORDS = r"(?:control|vehicle|placebo|sham|saline|untreated)"
+#: A group known only by the rank of its dose: "with the highest dose", "the lowest-dose group".
+_DOSE_RANK = re.compile(
+    r"\b(?:with|at|in|for|on|given|receiving|of)\s+the\s+(highest|lowest|largest|smallest|top)"
+    r"[\s-]+(?:dose|concentration)s?\b",
+    re.I,
 )
 _GROUP_NOT = frozenset(
     {
@@ -226,6 +246,14 @@ _METHOD_TAIL = re.compile(r"\s+(?:by|using|via|on)\s+.*$", re.I)
 _NOT_OUTCOME_START = re.compile(
     r"(?:given|treated|receiving|received|with|exposed|fed|dosed|injected)\b", re.I
 )
+#: A treatment verb inside the phrase before a value: it names a group, not what was measured
+#: ("minipigs given FTZ 40 mg/kg/day (n = 8) had 16.1 kg").
+_TREATMENT_IN_PHRASE = re.compile(
+    r"\b(?:given|treated|receiving|received|exposed|dosed|injected)\b", re.I
+)
+#: A number that is no measured value: a sample size "n = 8", a dose "40 mg/kg".
+_NOT_MEASURE_BEFORE = re.compile(r"\b[nN]\s*=\s*$")
+_NOT_MEASURE_AFTER = re.compile(r"^\s*(?:mg|µg|μg|ug|ng|mL|µL|μL|IU|mM|µM|μM|nM)\b")
 _PLURAL_HEADS = frozenset(
     "counts levels concentrations values scores weights volumes rates times pressures".split()
 )
@@ -295,9 +323,11 @@ def _find_subjects(text: str, norm: str) -> list[ContextMention]:
     found: list[ContextMention] = []
     for match in _lexicon_regex("subjects").finditer(norm):
         start, end = match.start(), match.end()
+        if _is_run_in_heading(norm, start, end):
+            continue
         modifiers = _SUBJECT_MODIFIERS.search(norm[max(0, start - 80) : start])
         if modifiers:
-            start -= len(modifiers.group(1))
+            start -= len(_strain_words(modifiers.group(1)))
         age = _SUBJECT_AGE_AFTER.match(norm[end : end + 40])
         if age:
             end += age.end()
@@ -309,6 +339,22 @@ def _find_subjects(text: str, norm: str) -> list[ContextMention]:
             )
         )
     return found
+
+
+def _is_run_in_heading(norm: str, start: int, end: int) -> bool:
+    """A subject word standing alone as a run-in heading ("Animals. Male rats were ...")."""
+    before = norm[:start].rstrip()
+    return (not before or before[-1] in ".:;") and norm[end : end + 1] in (".", ":")
+
+
+def _strain_words(modifiers: str) -> str:
+    """The modifiers before a subject noun that belong to the subject: a word that is no strain
+    name ("Control", "All", "twelve") cuts the run, and only what follows it is kept."""
+    cut = 0
+    for token in re.finditer(r"\S+", modifiers):
+        if token.group(0).lower() in _NOT_STRAIN:
+            cut = token.end()
+    return modifiers[cut:].lstrip()
 
 
 def _find_interventions(text: str, norm: str) -> list[ContextMention]:
@@ -325,6 +371,23 @@ def _find_interventions(text: str, norm: str) -> list[ContextMention]:
 
 def _find_groups(text: str, norm: str) -> list[ContextMention]:
     found: list[ContextMention] = []
+    for match in _DOSE_RANK.finditer(norm):
+        value = f"{match.group(1).lower()} dose"
+        found.append(
+            ContextMention(
+                "group", text[match.start() : match.end()], value, match.start(), match.end()
+            )
+        )
+    for match in _GIVEN_GROUP.finditer(norm):
+        start, end = match.start(1), match.end(1)
+        value = " ".join(text[start:end].split())
+        found.append(ContextMention("group", text[start:end], value, start, end))
+    subjects = "|".join(re.escape(entry) for entry in load_lexicon("subjects"))
+    control = re.compile(rf"\b({_CONTROL_WORDS})(?:-treated)?\s+(?:{subjects})\b", re.I)
+    for match in control.finditer(norm):
+        start, end = match.start(1), match.end(1)
+        if not any(m.start < end and start < m.end for m in found):
+            found.append(ContextMention("group", text[start:end], text[start:end], start, end))
     for pattern in _GROUP_PATTERNS:
         for match in pattern.finditer(norm):
             start, end = match.start(1), match.end(1)
@@ -400,6 +463,7 @@ def find_outcome(text: str, start: int) -> ContextMention | None:
             and not words[0][0].isdigit()
             and not after_number
             and not _NOT_OUTCOME_START.match(trimmed)
+            and not _TREATMENT_IN_PHRASE.search(trimmed)
         ):
             lexicon_hit = _lexicon_regex("outcomes").search(norm, offset, offset + len(trimmed))
             if lexicon_hit is None and len(words) > 4:
@@ -414,6 +478,10 @@ def find_outcome(text: str, start: int) -> ContextMention | None:
     # A parallel value ("... was 26.7 h in controls and 30.2 h in treated cultures") shares
     # the outcome of the value before it.
     for earlier in reversed(list(re.finditer(r"(?<![\w.])-?\d+(?:\.\d+)?", head))):
+        if _NOT_MEASURE_BEFORE.search(head, 0, earlier.start()) or _NOT_MEASURE_AFTER.match(
+            head[earlier.end() :]
+        ):
+            continue
         if earlier.start() < clause_start or _clause_has_link(head, earlier.start()):
             shared = find_outcome(text, earlier.start())
             if shared is not None:

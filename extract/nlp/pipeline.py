@@ -8,8 +8,8 @@ spaCy factory          extractor id              sets
 =====================  ========================  ================================================
 ``sentences_rules``    ``sentences.rules@1``     ``token.is_sent_start``
 ``quantities_rules``   ``quantities.rules@1``    ``doc.spans["quantities"]``, ``span._.quantity``
-``sample_size_rules``  ``sample_size.rules@1``   ``doc.spans["sample_sizes"]``, ``span._.sample_size``
-``context_rules``      ``context.rules@1``       ``doc.spans["context"]``, ``span._.context``
+``sample_size_rules``  ``sample_size.rules@2``   ``doc.spans["sample_sizes"]``, ``span._.sample_size``
+``context_rules``      ``context.rules@2``       ``doc.spans["context"]``, ``span._.context``
 =====================  ========================  ================================================
 
 Span labels are the quantity's role, the sample size's scope and the context kind. The pipeline
@@ -145,7 +145,7 @@ class QuantitiesComponent(_RuleComponent):
 
 @register_extractor(
     "sample_size.rules",
-    1,
+    2,
     factory="sample_size_rules",
     description="sample sizes: n = 8 per group, Vehicle (n = 9), n = 6-8, twelve mice per group",
 )
@@ -153,7 +153,7 @@ class SampleSizeComponent(_RuleComponent):
     """Finds sample sizes per sentence; ``doc.spans["sample_sizes"]`` labelled by scope."""
 
     name = "sample_size.rules"
-    version = 1
+    version = 2
 
     def __call__(self, doc: Doc) -> Doc:
         spans = []
@@ -172,7 +172,7 @@ class SampleSizeComponent(_RuleComponent):
 
 @register_extractor(
     "context.rules",
-    1,
+    2,
     factory="context_rules",
     description="time point, method, subject, intervention, group; outcome of each measure",
 )
@@ -183,7 +183,7 @@ class ContextComponent(_RuleComponent):
     """
 
     name = "context.rules"
-    version = 1
+    version = 2
 
     def __call__(self, doc: Doc) -> Doc:
         spans = []

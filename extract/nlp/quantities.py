@@ -825,7 +825,25 @@ def parse_cell(
                 quantity = _replace(quantity, statistic="percent")
     if norm[: match.start()].strip():
         quantity = _replace(quantity, flags=quantity.flags + ("censored",))
+    rest = stripped[quantity.end :].strip()
+    if quantity.unit is None and _UNKNOWN_UNIT.fullmatch(rest) and not _NOT_A_UNIT.fullmatch(rest):
+        # A unit the unit registry does not know ("1213 ± 214 RFU"): kept as written.
+        quantity = _replace(
+            quantity,
+            unit=rest,
+            end=len(stripped),
+            text=stripped,
+            flags=quantity.flags + ("unknown_unit",),
+        )
     return quantity
+
+
+#: A word after a cell's value that can be a unit the registry lacks ("RFU", "AU", "cells/well").
+_UNKNOWN_UNIT = re.compile(r"[A-Za-zµμ°][A-Za-z0-9µμ/²³·^-]{0,11}")
+#: Words after a value that are no unit: statistic labels, marks of significance, "vs".
+_NOT_A_UNIT = re.compile(
+    r"(?i:SD|SEM|SE|CI|IQR|range|mean|median|n|ns|n\.?s|vs|versus|and|or|to|p|NA|ND)"
+)
 
 
 def _replace(quantity: Quantity, **changes: Any) -> Quantity:

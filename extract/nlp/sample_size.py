@@ -18,6 +18,7 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
+from extract.nlp.context import load_lexicon
 from extract.nlp.tokenizer import normalize_text
 
 __all__ = ["NUMBER_WORDS", "SCOPES", "SampleSize", "find_sample_sizes", "parse_number"]
@@ -75,7 +76,8 @@ _SUBJECTS = (
     r"mice|mouse|rats?|animals?|patients?|participants?|subjects?|volunteers?|individuals?|"
     r"women|men|children|adults?|dogs?|pigs?|rabbits?|hamsters?|primates?|monkeys?|fish|"
     r"zebrafish|cases?|donors?|samples?|litters?|pups?|biological replicates|replicates|"
-    r"embryos?|larvae|wells|explants|cultures|people|persons"
+    r"embryos?|larvae|wells|explants|cultures|people|persons|minipigs?|piglets?|sheep|"
+    r"guinea pigs|ferrets?|cats?|gerbils?|marmosets?|macaques?|zebrafish|flies|worms"
 )
 _ADJECTIVES = r"(?:(?:male|female|adult|healthy|young|aged|old|juvenile|[\w]+-week-old|[\w]+-old|C\w+|\w+-deficient|wild-type|transgenic)\s+){0,3}"
 _PER_GROUP = r"(?:per|/|in each|each|for each|in every)\s*(?:experimental\s+|treatment\s+)?(?:group|arm|condition|genotype|cohort|treatment|dose)s?\b"
@@ -96,6 +98,8 @@ _GROUP_STOP = frozenset(
     "into and or vs vs. versus with were was the a an of to in for from between among receiving"
     " treated given each per both all groups group arm arms".split()
 )
+#: A number right after a time word is a time ("at week 8 in each group"), not a count.
+_TIME_BEFORE = re.compile(r"\b(?:day|week|month|year|hour|visit|wk|cycle|passage)\s*$", re.I)
 _COPULAS = frozenset("were was is are be been being remained seemed".split())
 _ALLOCATION = re.compile(r"\b(?:randomi[sz]ed|assigned|allocated)\b", re.I)
 _TO_GROUP = re.compile(
@@ -138,6 +142,12 @@ def _group_before(text: str, paren: int) -> str | None:
     return group or None
 
 
+def _names_outcome(name: str) -> bool:
+    """Whether a name before "(n = ...)" is an outcome of the outcomes lexicon, not a group."""
+    outcomes = {entry.lower() for entry in load_lexicon("outcomes")}
+    return name.lower().strip() in outcomes
+
+
 def _group_after(text: str, end: int) -> str | None:
     match = _GROUP_AFTER.match(text[end : end + 60])
     if match:
@@ -175,6 +185,8 @@ def find_sample_sizes(text: str) -> list[SampleSize]:
                 if paren != -1 and not norm[paren + 1 : start].strip()
                 else None
             )
+            if group is not None and _names_outcome(group):
+                group = None  # "Body mass (n = 10)": the n measured, not a group's name
             if group is None:
                 group = _group_after(norm, end)
             scope = "group" if group else "unspecified"
@@ -191,7 +203,7 @@ def find_sample_sizes(text: str) -> list[SampleSize]:
             continue
         low = count
         high = int(match.group(2)) if match.group(2) else low
-        if _looks_like_measure(norm, match.start()):
+        if _looks_like_measure(norm, match.start()) or _TIME_BEFORE.search(norm, 0, match.start()):
             continue
         scope = "per_group" if match.group(4) else "total"
         found.append(
@@ -200,7 +212,7 @@ def find_sample_sizes(text: str) -> list[SampleSize]:
         taken.append((match.start(), match.end()))
 
     for match in _COUNT_PER_GROUP.finditer(norm):
-        if overlaps(match.start(), match.end()):
+        if overlaps(match.start(), match.end()) or _TIME_BEFORE.search(norm, 0, match.start()):
             continue
         per_group = parse_number(match.group(1))
         if per_group is None or per_group == 0:

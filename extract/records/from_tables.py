@@ -20,7 +20,7 @@ from extract.records.proposal import Source
 from extract.registry import register_extractor
 
 #: The extractor that reads table cells.
-EXTRACTOR = "tables.cells@1"
+EXTRACTOR = "tables.cells@2"
 
 _GROUP_WORDS = re.compile(
     r"\b(?:vehicle|control|controls|sham|placebo|saline|naive|naïve|untreated|treated|treatment|"
@@ -125,7 +125,7 @@ def table_order(document: Document, table: Table, index: int) -> float:
 
 
 @register_extractor(
-    "tables.cells", 1, factory=None, description="data cells of tables, with headers, n and spread"
+    "tables.cells", 2, factory=None, description="data cells of tables, with headers, n and spread"
 )
 def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> list[Draft]:
     """One draft per data cell of ``table``, in row-major order.

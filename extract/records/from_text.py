@@ -20,7 +20,7 @@ import re
 from dataclasses import dataclass
 
 from extract.ingest.document import Block, Document
-from extract.nlp.context import ContextMention
+from extract.nlp.context import ContextMention, load_lexicon
 from extract.nlp.pipeline import SentenceFindings, analyze
 from extract.nlp.quantities import Quantity, find_dispersion_statement
 from extract.nlp.sample_size import SampleSize
@@ -31,7 +31,7 @@ from extract.registry import register_extractor
 from extract.units import is_known_unit
 
 #: The extractor that reads sentences (the records-level reader over the nlp components).
-EXTRACTOR = "text.sentences@1"
+EXTRACTOR = "text.sentences@2"
 
 #: Sections whose sentences report data points.
 TEXT_SECTIONS: tuple[str, ...] = ("abstract", "results", "legends")
@@ -43,20 +43,17 @@ _LINK_GAP = re.compile(
     r"\s+to)\s+(?:(?:approximately|about|a mean of|a median of|mean|median)\s+)?$",
     re.I,
 )
-#: A group named by its treatment after a value: "with BDC 20 mg/kg", "in rats given FTZ 4 mg".
-_GIVEN_GROUP = re.compile(
-    r"^[^;]*?\b(?:with|given|receiving|treated with|on)\s+(?P<g>[A-Z][\w-]*(?:\s+[\d.]+\s*"
-    r"(?:mg|µg|μg|ug|ng|g|mL|µL|μL|IU|U|nmol|µmol|μmol|mmol|mM|µM|μM|nM)(?:/kg)?(?:/day|/d)?)?"
-    r"|placebo|vehicle|saline|control)\b",
-)
-_GIVEN_GROUP_ANYWHERE = re.compile(_GIVEN_GROUP.pattern.removeprefix("^[^;]*?"))
 _DOSE = re.compile(r"\d\s*(?:mg|µg|μg|ug|g|mL|nmol|µmol|μmol|mmol|IU|U|mM|µM|μM|nM)\b")
-#: A lowercase group before its noun: "control minipigs", "vehicle-treated mice".
-_WORD_GROUP = re.compile(
-    r"\b(?P<g>control|vehicle|placebo|sham|saline|untreated)(?:-treated)?\s+[a-z]+\b"
-    r"|\b(?P<t>[\w]+)-treated\b",
+#: A value that pools every group: "across the three arms", "in all participants", "overall".
+_POOLED = re.compile(
+    r"\bacross\s+(?:the\s+|all\s+|both\s+)?(?:\w+\s+)?(?:arms|groups|cohorts)\b"
+    r"|\b(?:in|of)\s+all\s+(?:\w+\s+)?(?:participants|patients|subjects|animals|arms|groups)\b",
     re.I,
 )
+#: A sentence about a subset named by what happened to it ("Among responders given X, ..."):
+#: the group's n does not count it.
+_SUBSET = re.compile(r"^\s*Among\s+(?:the\s+)?(?P<who>[a-z][\w-]*)", re.I)
+_SUBJECT_NOUNS = frozenset(w.lower() for w in load_lexicon("subjects"))
 #: Words that end one clause's claim on a sample size: "..., whereas", "; ", " and ".
 _CLAUSE_BREAK = re.compile(r";|\bwhereas\b|\bwhile\b|\band\b|\bbut\b", re.I)
 
@@ -101,19 +98,12 @@ def _group_in(text: str, mentions: list[ContextMention], span: _Span, *, after: 
     for mention in mentions:
         if mention.kind == "group" and after <= mention.start < end:
             return mention.value
-    given = _GIVEN_GROUP.match(text[after:end])
-    return given["g"] if given else None
+    return None
 
 
 def _group_before(text: str, mentions: list[ContextMention], start: int, value: int) -> str | None:
     """A group named in the clause before the value ("In the vehicle group, X was ...")."""
-    found: list[tuple[int, str]] = [
-        (m.start, m.value) for m in mentions if m.kind == "group" and start <= m.start < value
-    ]
-    for match in _GIVEN_GROUP_ANYWHERE.finditer(text, start, value):
-        found.append((match.start(), match["g"]))
-    for match in _WORD_GROUP.finditer(text, start, value):
-        found.append((match.start(), match["g"] or match["t"]))
+    found = [(m.start, m.value) for m in mentions if m.kind == "group" and start <= m.start < value]
     return max(found)[1] if found else None
 
 
@@ -191,6 +181,9 @@ def sentence_drafts(
     mentions = list(findings.context)
     context = {m.kind: m.value for m in reversed(mentions) if m.kind != "group"}
     per_group = find_group_n(findings.text)
+    sentence = findings.text
+    subset = _SUBSET.match(sentence)
+    is_subset = subset is not None and subset["who"].lower() not in _SUBJECT_NOUNS
     drafts: list[Draft] = []
     previous_end = findings.start
     source = _source(block, findings.text)
@@ -202,6 +195,7 @@ def sentence_drafts(
         if group is None:
             group = _group_before(text, mentions, previous_end, quantity.start)
         n = _n_for(findings.sample_sizes, quantity, span, previous_end, text)
+        pooled = group is None and _POOLED.search(text, quantity.end, span.end) is not None
         time = _time_before(mentions, quantity.start) or time_point
         previous_end = quantity.end
         statistic: str | None = None
@@ -239,7 +233,11 @@ def sentence_drafts(
         if spread is not None and spread.kind is not None:
             how = "value" if spread.kind_from == "text" else "legend"
             draft = draft.with_found("dispersion", how)
-        if n is not None:
+        if pooled:
+            draft = draft.with_flag("pooled")
+        if is_subset and n is None:
+            draft = draft.with_flag("n_subset")
+        elif n is not None:
             draft = draft.with_found("n", "sentence", n=n)
         elif per_group is not None:
             draft = draft.with_found("n", "sentence", n=per_group)
@@ -279,7 +277,7 @@ def block_drafts(block: Block) -> list[Draft]:
             if draft.dispersion_value is not None and draft.how("dispersion") is None:
                 if draft.dispersion_kind is not None:
                     draft = draft.with_found("dispersion", how)
-            if draft.n is None and block_n is not None:
+            if draft.n is None and block_n is not None and "n_subset" not in draft.flags:
                 draft = draft.with_found("n", how, n=block_n)
             drafts.append(draft)
         times = [m.value for m in findings.context if m.kind == "time_point"]
@@ -289,7 +287,7 @@ def block_drafts(block: Block) -> list[Draft]:
 
 
 @register_extractor(
-    "text.sentences", 1, factory=None, description="measures in sentences, linked to their context"
+    "text.sentences", 2, factory=None, description="measures in sentences, linked to their context"
 )
 def text_drafts(document: Document, *, sections: tuple[str, ...] = TEXT_SECTIONS) -> list[Draft]:
     """Drafts for every data point in the text of ``sections`` (figure legends included).

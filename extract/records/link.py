@@ -17,14 +17,15 @@ the stable id from :func:`~extract.records.proposal.make_id`.
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 from extract.ingest.document import Document
+from extract.nlp.abbreviations import expand_outcome, find_abbreviations, long_form_for
 from extract.nlp.context import ContextMention, find_context, load_lexicon
 from extract.nlp.quantities import find_dispersion_statement
 from extract.nlp.sample_size import find_sample_sizes
 from extract.records.draft import FOUND_WEIGHTS, Draft
-from extract.records.patterns import find_group_n, group_and_n, read_cell
+from extract.records.patterns import find_group_n, group_and_n, read_cell, split_label
 from extract.records.proposal import Dispersion, Proposal, make_id
 from extract.records.stats import derive_sd
 from extract.units import normalize
@@ -70,6 +71,10 @@ class ArticleContext:
         dispersion_kind: the kind the methods declare ("Values are mean ± SEM"), if any.
         statistic: "mean" or "median" when the methods declare how values are summarised.
         subject: species, strain, sex as stated, if found.
+        n_per_group_from: "methods", or "legend" when only legends or footnotes state it.
+        total_n: the number randomised, allocated or enrolled, when stated.
+        dose_groups: group names that state a dose ("BDC 20 mg/kg"), as the article writes them.
+        abbreviations: short form -> long form, as the article defines them.
     """
 
     article: str
@@ -81,6 +86,10 @@ class ArticleContext:
     subject: str | None = None
     method: str | None = None
     time_point: str | None = None
+    n_per_group_from: str = "methods"
+    total_n: int | None = None
+    dose_groups: tuple[str, ...] = ()
+    abbreviations: dict[str, str] = field(default_factory=dict)
 
 
 def article_id(document: Document) -> str:
@@ -99,6 +108,12 @@ def read_context(document: Document, *, subject: str | None = None) -> ArticleCo
     kind = find_dispersion_statement(methods) or find_dispersion_statement(everything)
     mentions = find_context(methods) if methods else []
     n_per_group = find_group_n(methods)
+    n_from = "methods"
+    if n_per_group is None and not any(
+        size.scope == "per_group" for size in find_sample_sizes(methods)
+    ):
+        n_per_group = _one_per_group_n(document)
+        n_from = "legend"
     group_n = _stated_group_sizes(document, methods)
     statistic = None
     if re.search(r"\bmedians?\b[^.]{0,40}(?:IQR|interquartile|range)", methods, re.I):
@@ -115,7 +130,107 @@ def read_context(document: Document, *, subject: str | None = None) -> ArticleCo
         subject=subject or _methods_subject(mentions),
         method=next((m.value for m in mentions if m.kind == "method"), None),
         time_point=_methods_time_point(mentions),
+        n_per_group_from=n_from,
+        total_n=_total_n(everything),
+        dose_groups=_dose_groups(document, group_n),
+        abbreviations=_abbreviations(document),
     )
+
+
+def _one_per_group_n(document: Document) -> int | None:
+    """The per-group n that the legends, captions and footnotes state, when they all agree
+    ("Bars show mean ± SEM; n = 12 per group"): an article that states it once, in a legend,
+    studied groups of that size."""
+    texts = [b.text for b in document.blocks if b.kind == "caption" or b.section == "legends"]
+    texts += [note for table in document.tables for note in table.footnotes]
+    sizes = [size for text in texts for size in find_sample_sizes(text)]
+    found = {size.n for size in sizes if size.scope == "per_group"}
+    return found.pop() if len(found) == 1 else None  # a range ("n = 8-10") gives None
+
+
+#: A total that counts the whole study: "301 were randomised", "120 patients were enrolled".
+_TOTAL_WORDS = re.compile(r"randomi[sz]ed|allocated|assigned|enrolled|included|recruited", re.I)
+
+
+def _total_n(text: str) -> int | None:
+    """The study's total n: the first total stated with randomised/allocated/enrolled."""
+    for sentence in re.split(r"(?<=[.;])\s+", text):
+        if not _TOTAL_WORDS.search(sentence):
+            continue
+        for size in find_sample_sizes(sentence):
+            if size.scope == "total" and size.n and _TOTAL_WORDS.search(size.text):
+                return size.n
+    return None
+
+
+_DOSE_NAME = re.compile(
+    r"^(?:[A-Z][\w-]*\s+)?(?P<dose>\d+(?:\.\d+)?)\s*(?P<unit>(?:mg|µg|μg|ug|ng|g|mL|IU|U|nmol|"
+    r"µmol|μmol|mmol|mM|µM|μM|nM)(?:\s*/\s*kg)?(?:\s*/\s*(?:day|d))?)$"
+)
+
+
+def _dose_groups(document: Document, group_n: dict[str, int]) -> tuple[str, ...]:
+    """Group names that state a dose, from the text's group mentions, the stated group sizes
+    and the table headers, in the article's own spelling."""
+    names: list[str] = []
+    for block in document.blocks:
+        if block.section in ("abstract", "results", "methods") or block.kind == "caption":
+            names.extend(m.value for m in find_context(block.text) if m.kind == "group")
+    for table in document.tables:
+        for cell in table.cells:
+            names.append(group_and_n(split_label(cell.text)[0])[0])
+    names.extend(group_n)
+    return tuple(dict.fromkeys(n for n in names if _DOSE_NAME.match(n.strip())))
+
+
+def resolve_dose_rank(rank: str, dose_groups: tuple[str, ...]) -> str | None:
+    """The group that "the highest dose" (or lowest ...) means: among the article's dose groups
+    in the unit most of them use, the one with the largest (smallest) dose."""
+    parsed = []
+    for name in dose_groups:
+        match = _DOSE_NAME.match(name.strip())
+        if match:
+            unit = re.sub(r"\s+", "", match["unit"])
+            parsed.append((unit, float(match["dose"]), name))
+    if not parsed:
+        return None
+    units = [unit for unit, _, _ in parsed]
+    common = max(set(units), key=units.count)
+    same = [(dose, name) for unit, dose, name in parsed if unit == common]
+    highest = rank.split()[0] in ("highest", "largest", "top")
+    target = max(d for d, _ in same) if highest else min(d for d, _ in same)
+    # Of the spellings of that dose, the fullest ("MSF 45 mg/kg/day" over "45 mg/kg/day").
+    return max((name for d, name in same if d == target), key=len)
+
+
+def _abbreviations(document: Document) -> dict[str, str]:
+    """Short forms the article defines, plus table labels that are short forms written out in a
+    sentence describing the table ("Table 1 summarises ..., alanine aminotransferase and ...")."""
+    text = " ".join(b.text for b in document.blocks if b.section != "references")
+    notes = " ".join(note for table in document.tables for note in table.footnotes)
+    found = find_abbreviations(text + " " + notes)
+    for table in document.tables:
+        label = (table.label or "").strip()
+        if not label:
+            continue
+        described = [
+            sentence
+            for block in document.blocks
+            if label in block.text
+            for sentence in re.split(r"(?<=[.;])\s+", block.text)
+            if label in sentence
+        ]
+        phrases = [p.strip() for s in described for p in re.split(r",|;|\band\b|\bor\b", s)]
+        for cell in table.cells:
+            name = split_label(cell.text)[0].strip()
+            if name in found or not re.fullmatch(r"[A-Z][A-Z0-9]{1,7}", name):
+                continue
+            for phrase in phrases:
+                long_form = long_form_for(name, phrase)
+                if long_form is not None and len(long_form.split()) <= len(name):
+                    found[name] = long_form
+                    break
+    return found
 
 
 def _methods_subject(mentions: list[ContextMention]) -> str | None:
@@ -155,17 +270,19 @@ def _stated_group_sizes(document: Document, methods: str) -> dict[str, int]:
 
     for match in _GROUP_N_STATEMENT.finditer(methods):
         add(match.group(1), int(match.group(2)))
+    for block in document.blocks:
+        if block.section == "references" or not re.search(
+            r"\bn\s*=|randomi[sz]ed|allocated|assigned", block.text
+        ):
+            continue
+        for size in find_sample_sizes(block.text):
+            if size.scope == "group":
+                add(size.group, size.n)
     for table in document.tables:
         for cell in table.cells:
             name, n = group_and_n(cell.text)
             if n is not None and re.search(r"[A-Za-z]", name) and read_cell(cell.text) is None:
                 add(name, n)
-    for block in document.blocks:
-        if block.section == "references" or not re.search(r"\bn\s*=", block.text):
-            continue
-        for size in find_sample_sizes(block.text):
-            if size.scope == "group":
-                add(size.group, size.n)
     return group_n
 
 
@@ -180,7 +297,11 @@ def _group_key(text: str) -> str:
 
 def link_n(draft: Draft, context: ArticleContext) -> Draft:
     """Give a draft with no n the group's stated n, else the methods' per-group n (flagged)."""
-    if draft.n is not None:
+    if draft.n is not None or "n_subset" in draft.flags:
+        return draft
+    if "pooled" in draft.flags:
+        if context.total_n is not None:
+            return draft.with_found("n", "document", n=context.total_n)
         return draft
     if draft.group:
         key = _group_key(draft.group)
@@ -193,8 +314,24 @@ def link_n(draft: Draft, context: ArticleContext) -> Draft:
             ):
                 return draft.with_found("n", "document", n=n)
     if context.n_per_group is not None:
+        if context.n_per_group_from == "legend":
+            return draft.with_found("n", "legend", n=context.n_per_group).with_flag("n_from_legend")
         return draft.with_found("n", "methods", n=context.n_per_group).with_flag("n_from_methods")
     return draft
+
+
+def link_group(draft: Draft, context: ArticleContext) -> Draft:
+    """A group known by the rank of its dose ("with the highest dose") named from the
+    article's dose groups (flag ``group_from_dose_rank``)."""
+    if draft.group is None or not re.fullmatch(
+        r"(?:highest|lowest|largest|smallest|top) dose", draft.group
+    ):
+        return draft
+    name = resolve_dose_rank(draft.group, context.dose_groups)
+    if name is None:
+        return draft
+    how = draft.how("group") or "sentence"
+    return draft.with_found("group", how, group=name).with_flag("group_from_dose_rank")
 
 
 def link_dispersion(draft: Draft, context: ArticleContext) -> Draft:
@@ -254,8 +391,11 @@ def confidence(draft: Draft) -> float:
 
 def finish(draft: Draft, context: ArticleContext) -> Proposal:
     """Link one draft and make it a Proposal (SD derived, unit normalised, confidence, id)."""
+    draft = link_group(draft, context)
     draft = link_n(draft, context)
     draft = link_dispersion(draft, context)
+    if draft.outcome:
+        draft = replace(draft, outcome=expand_outcome(draft.outcome, context.abbreviations))
     draft = link_statistic(draft, context)
     norm = normalize(draft.value, draft.unit)
     for flag in norm.flags:

@@ -10,7 +10,6 @@ n), and the per-group n of a statement, read through the nlp sample-size reader.
 from __future__ import annotations
 
 import re
-from dataclasses import replace
 
 from extract.nlp.quantities import Quantity, parse_cell
 from extract.nlp.sample_size import find_sample_sizes
@@ -26,7 +25,6 @@ _UNIT_IN_LABEL = re.compile(
     r"^(?P<name>.*?)\s*(?:\((?P<p>[^()]*)\)|\[(?P<b>[^\[\]]*)\]|,\s*(?P<c>[^,]+))\s*$"
 )
 _GROUP_N = re.compile(r"\s*[(\[,;]?\s*\b[nN]\s*=\s*(\d+)\s*[)\]]?\s*$")
-_UNIT_WORD = re.compile(r"[A-Za-zµμ°][A-Za-z0-9µμ/²³·^-]{0,11}")
 _CENSORED = re.compile(r"^(?:[<>≤≥]|[pP]\s*[=<>])")
 
 
@@ -56,11 +54,6 @@ def read_cell(text: str) -> Quantity | None:
     quantity = parse_cell(text)
     if quantity is None:
         return None
-    rest = text[quantity.end :].strip()
-    if rest and quantity.unit is None and _UNIT_WORD.fullmatch(rest):
-        # A unit the unit registry does not know ("RFU", "AU"): kept as written, and linking
-        # flags it "unknown_unit".
-        return replace(quantity, unit=rest, end=len(text), text=text)
     if quantity.end != len(text):
         return None
     return quantity
