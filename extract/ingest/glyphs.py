@@ -16,8 +16,12 @@ from __future__ import annotations
 
 import ctypes
 import math
-from typing import NamedTuple
+from collections.abc import Iterator, Sequence
+from dataclasses import dataclass
+from itertools import repeat
+from typing import Any, NamedTuple, overload
 
+import numpy as np
 import pypdfium2 as pdfium
 import pypdfium2.raw as raw
 
@@ -28,8 +32,6 @@ RULE_THICKNESS = 3.0
 _BOLD_WEIGHT = 600
 #: A space pdfium generated counts only where the gap exceeds this share of the font size.
 GAP_RATIO = 0.1
-#: Codes pdfium reports that are no printed character (line breaks, noncharacters).
-_SKIP_CODES = frozenset({0, 0x0A, 0x0D, 0xFFFE, 0xFFFF})
 #: pdfium marks a hyphen at a line end as 0x02.
 _REMAP = {0x02: "-"}
 
@@ -61,7 +63,67 @@ class Segment(NamedTuple):
         return (self.x1 - self.x0) >= (self.bottom - self.top)
 
 
-def read_chars(page: pdfium.PdfPage, height: float) -> list[Char]:
+@dataclass(frozen=True, eq=False)
+class PageChars(Sequence[Char]):
+    """The printed characters of a page, stored column by column (one array per field).
+
+    Behaves as a read-only sequence of :class:`Char`; word grouping reads the columns directly,
+    so that no object is made per character on the fast path.
+    """
+
+    texts: list[str]
+    x0: np.ndarray
+    top: np.ndarray
+    x1: np.ndarray
+    bottom: np.ndarray
+    size: np.ndarray
+    bold: np.ndarray
+    upright: np.ndarray
+
+    @classmethod
+    def of(cls, chars: Sequence[Char]) -> PageChars:
+        """Columns of any sequence of characters."""
+        if isinstance(chars, PageChars):
+            return chars
+        if not chars:
+            return _EMPTY
+        texts, x0, top, x1, bottom, size, bold, upright = zip(*chars, strict=True)
+        floats = [np.array(v, dtype=np.float64) for v in (x0, top, x1, bottom, size)]
+        flags = [np.array(v, dtype=bool) for v in (bold, upright)]
+        return cls(list(texts), *floats, *flags)
+
+    def __len__(self) -> int:
+        return len(self.texts)
+
+    @overload
+    def __getitem__(self, index: int) -> Char: ...
+
+    @overload
+    def __getitem__(self, index: slice) -> PageChars: ...
+
+    def __getitem__(self, index: int | slice) -> Char | PageChars:
+        if isinstance(index, slice):
+            return PageChars(
+                self.texts[index],
+                *(column[index] for column in self._columns()),
+            )
+        values = (column[index].item() for column in self._columns())
+        return Char(self.texts[index], *values)
+
+    def __iter__(self) -> Iterator[Char]:
+        rows = zip(self.texts, *(column.tolist() for column in self._columns()), strict=True)
+        return map(tuple.__new__, repeat(Char), rows)
+
+    def _columns(self) -> tuple[np.ndarray, ...]:
+        return (self.x0, self.top, self.x1, self.bottom, self.size, self.bold, self.upright)
+
+
+_NO_FLOATS = np.zeros(0, dtype=np.float64)
+_NO_FLAGS = np.zeros(0, dtype=bool)
+_EMPTY = PageChars([], *([_NO_FLOATS] * 5), _NO_FLAGS, _NO_FLAGS)
+
+
+def read_chars(page: pdfium.PdfPage, height: float) -> PageChars:
     """All printed characters of ``page`` in content order.
 
     Args:
@@ -78,70 +140,120 @@ def read_chars(page: pdfium.PdfPage, height: float) -> list[Char]:
         textpage.close()
 
 
-def _chars_of(tp: object, height: float) -> list[Char]:
+def _chars_of(tp: object, height: float) -> PageChars:
+    """Characters of the text page ``tp``; the per-character pdfium calls are driven from C."""
     count = raw.FPDFText_CountChars(tp)
     if count <= 0:
-        return []
+        return _EMPTY
+    handle = ctypes.cast(tp, ctypes.c_void_p)  # type: ignore[call-overload]
+    kept, texts, gaps = _printed(tp, handle, count)
+    n = len(kept)
+    if not n:
+        return _EMPTY
+    # one loose box per character, each written into its own slot of one float array
+    boxes = (ctypes.c_float * (4 * n))()
+    base = ctypes.addressof(boxes)
+    done = list(map(_LOOSE_BOX, repeat(handle, n), kept, range(base, base + 16 * n, 16)))
+    if not all(done):
+        _fill_failed(boxes, done)
+    # FS_RECTF holds (left, top, right, bottom) with the origin at the bottom left
+    rects = np.frombuffer(boxes, dtype=np.float32).reshape(n, 4).astype(np.float64)
+    upright, size, bold = _styles(tp, handle, kept)
+    bottom = height - rects[:, 3]
+    top = np.where(upright & (size > 0), bottom - size, height - rects[:, 1])
+    x0, x1 = rects[:, 0], rects[:, 2]
+    if gaps:
+        # pdfium replaces some printed spaces by its own; a generated space still separates
+        # words when the gap is real (it is never drawn: no box of its own)
+        at = np.array(gaps)
+        real = x0[at] - x1[at - 1] > GAP_RATIO * size[at - 1]
+        at = at[real & np.array([texts[k] != " " for k in gaps], dtype=bool)]
+        if len(at):
+            before = at - 1
+            for k in reversed(at.tolist()):
+                texts.insert(k, " ")
+            x0 = np.insert(x0, at, x1[before])
+            top, x1, bottom, size, bold, upright = (
+                np.insert(column, at, column[before])
+                for column in (top, x1, bottom, size, bold, upright)
+            )
+    return PageChars(texts, x0, top, x1, bottom, size, bold, upright)
+
+
+def _styles(
+    tp: object, handle: ctypes.c_void_p, kept: list[int]
+) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """(upright, size, bold) per character, asked once per run of one text object."""
+    n = len(kept)
+    objects = np.array(list(map(_TEXT_OBJECT, repeat(handle, n), kept)), dtype=np.uint64)
+    starts = np.flatnonzero(np.concatenate(([True], objects[1:] != objects[:-1])))
+    matrix = raw.FS_MATRIX()
+    styles: dict[int, tuple[bool, float, bool, float]] = {}
+    runs = []
+    for obj, index in zip(objects[starts].tolist(), np.array(kept)[starts].tolist(), strict=True):
+        style = styles.get(obj)
+        if style is None:
+            style = styles[obj] = _style_of(tp, index, matrix)
+        runs.append(style)
+    lengths = np.diff(np.append(starts, n))
+    uprights, sizes, bolds, _ = zip(*runs, strict=True)
+    return (
+        np.repeat(np.array(uprights, dtype=bool), lengths),
+        np.repeat(np.array(sizes, dtype=np.float64), lengths),
+        np.repeat(np.array(bolds, dtype=bool), lengths),
+    )
+
+
+def _printed(
+    tp: object, handle: ctypes.c_void_p, count: int
+) -> tuple[list[int], list[str], list[int]]:
+    """Indices and texts of the printed characters, and where a generated space came before.
+
+    Returns:
+        The character indices kept, their texts, and the positions (in the kept list) that
+        follow a generated space which itself follows a printed character other than a space.
+    """
     # all code units in one call (UTF-16LE, one unit per character index)
     buffer = ctypes.create_string_buffer((count + 1) * 2)
     raw.FPDFText_GetText(tp, 0, count, ctypes.cast(buffer, ctypes.POINTER(ctypes.c_ushort)))
-    units = memoryview(buffer.raw).cast("H")
-    rect = raw.FS_RECTF()
-    matrix = raw.FS_MATRIX()
-    is_generated = raw.FPDFText_IsGenerated
-    loose_box = raw.FPDFText_GetLooseCharBox
-    text_object = _TEXT_OBJECT_ADDRESS
-    # size, weight and matrix belong to a character's text object: ask once per object
-    styles: dict[int | None, tuple[bool, float, bool, float]] = {}
-    chars: list[Char] = []
-    append = chars.append
-    pending_gap = False
-    for i in range(count):
-        code = units[i]
-        if (code < 0x20 and code not in (0x0A, 0x0D)) or code >= 0xFFFE:
-            # GetText drops pdfium's own markers (0x02: a hyphen at a line end); ask per char
-            code = raw.FPDFText_GetUnicode(tp, i)
-        if code in _SKIP_CODES:
-            continue
-        if code == 0x20 and is_generated(tp, i) == 1:
-            # pdfium replaces some printed spaces by its own; a generated space still
-            # separates words when the gap is real (it is never drawn: no box of its own).
-            pending_gap = bool(chars) and chars[-1].text != " "
-            continue
-        if 0xD800 <= code <= 0xDFFF:
-            code = raw.FPDFText_GetUnicode(tp, i)
-            if code in _SKIP_CODES or 0xD800 <= code <= 0xDFFF:
-                continue
-        text = _REMAP.get(code) or chr(code)
-        loose_box(tp, i, rect)
-        if pending_gap:
-            pending_gap = False
-            prev = chars[-1]
-            if text != " " and rect.left - prev.x1 > GAP_RATIO * prev.size:
-                append(prev._replace(text=" ", x0=prev.x1))
-        key = text_object(tp, i)
-        style = styles.get(key)
-        if style is None:
-            style = styles[key] = _style_of(tp, i, matrix)
-        upright, size, bold, _ = style
-        if upright:
-            bottom = height - rect.bottom
-            top = bottom - size if size > 0 else height - rect.top
-            append(Char(text, rect.left, top, rect.right, bottom, size, bold, True))
-        else:
-            append(
-                Char(
-                    text,
-                    rect.left,
-                    height - rect.top,
-                    rect.right,
-                    height - rect.bottom,
-                    size,
-                    bold,
-                    False,
-                )
-            )
-    return chars
+    codes = np.frombuffer(buffer, dtype="<u2", count=count).astype(np.int64)
+    special = (
+        ((codes < 0x20) & (codes != 0x0A) & (codes != 0x0D))
+        | ((codes >= 0xD800) & (codes <= 0xDFFF))
+        | (codes >= 0xFFFE)
+    )
+    special_at = np.flatnonzero(special).tolist()
+    for i in special_at:
+        # GetText drops pdfium's own markers (0x02: a hyphen at a line end); ask per char
+        code = raw.FPDFText_GetUnicode(tp, i)
+        codes[i] = 0 if 0xD800 <= code <= 0xDFFF else code
+    # no printed character: line breaks, noncharacters, nothing
+    skip = (codes == 0) | (codes == 0x0A) | (codes == 0x0D) | (codes >= 0xFFFE)
+    spaces = np.flatnonzero(codes == 0x20).tolist()
+    generated = [
+        i
+        for i, flag in zip(spaces, map(_IS_GENERATED, repeat(handle), spaces), strict=False)
+        if flag == 1
+    ]
+    skip[generated] = True
+    kept_at = np.flatnonzero(~skip)
+    kept_codes = codes[kept_at].tolist()
+    if special_at:
+        texts = [_REMAP.get(code) or chr(code) for code in kept_codes]
+    else:
+        texts = list(map(chr, kept_codes))
+    gaps: list[int] = []
+    if generated:
+        after = sorted(set(np.searchsorted(kept_at, generated).tolist()))
+        gaps = [k for k in after if 0 < k < len(texts) and texts[k - 1] != " "]
+    return kept_at.tolist(), texts, gaps
+
+
+def _fill_failed(boxes: ctypes.Array[ctypes.c_float], done: list[int]) -> None:
+    """Give each character whose box pdfium could not tell the box before it (zeros first)."""
+    for k, ok in enumerate(done):
+        if not ok:
+            boxes[4 * k : 4 * k + 4] = boxes[4 * k - 4 : 4 * k] if k else [0.0] * 4
 
 
 def _style_of(tp: object, i: int, matrix: object) -> tuple[bool, float, bool, float]:
@@ -155,10 +267,23 @@ def _style_of(tp: object, i: int, matrix: object) -> tuple[bool, float, bool, fl
     return upright, size, bold, font_size
 
 
-#: FPDFText_GetTextObject returning the object's address as an int (a hashable cache key).
-_TEXT_OBJECT_ADDRESS = ctypes.cast(
-    raw.FPDFText_GetTextObject,
-    ctypes.CFUNCTYPE(ctypes.c_void_p, ctypes.c_void_p, ctypes.c_int),
+def _c_function(function: object, restype: type | None, *argtypes: type) -> Any:
+    """pdfium's ``function`` with a lean ctypes prototype (no argument checks if none given)."""
+    address = ctypes.cast(function, ctypes.c_void_p).value  # type: ignore[call-overload]
+    prototype = ctypes.CFUNCTYPE(restype, *argtypes)(address)
+    if not argtypes:
+        prototype.argtypes = None
+    return prototype
+
+
+#: The text object of a character, as its address (an int, 0 for none); called with a
+#: ``c_void_p`` text page and an int index, which ctypes passes as they are.
+_TEXT_OBJECT = _c_function(raw.FPDFText_GetTextObject, ctypes.c_size_t)
+#: Whether pdfium generated a character itself (1), called as :data:`_TEXT_OBJECT`.
+_IS_GENERATED = _c_function(raw.FPDFText_IsGenerated, ctypes.c_int)
+#: A character's loose box, written to the FS_RECTF at the address given as third argument.
+_LOOSE_BOX = _c_function(
+    raw.FPDFText_GetLooseCharBox, ctypes.c_int, ctypes.c_void_p, ctypes.c_int, ctypes.c_void_p
 )
 
 

@@ -15,7 +15,9 @@ import itertools
 from collections.abc import Iterable, Sequence
 from typing import NamedTuple
 
-from extract.ingest.glyphs import Char
+import numpy as np
+
+from extract.ingest.glyphs import Char, PageChars
 
 DEFAULT_X_TOLERANCE = 3.0
 DEFAULT_Y_TOLERANCE = 3.0
@@ -30,6 +32,7 @@ LIGATURES: dict[str, str] = {
     "\ufb06": "st",
     "\ufb05": "st",
 }
+_LIGATURE_TABLE = str.maketrans(LIGATURES)
 
 
 class RawWord(NamedTuple):
@@ -58,15 +61,6 @@ def _cluster_values(values: Iterable[float], tolerance: float) -> dict[float, in
     return mapping
 
 
-def _lines_of(chars: Sequence[Char], y_tolerance: float) -> list[list[Char]]:
-    if len(chars) < 2:
-        return [list(chars)] if chars else []
-    mapping = _cluster_values((c.top for c in chars), y_tolerance)
-    ordered = sorted(chars, key=lambda c: mapping[c.top])
-    lines = [list(g) for _, g in itertools.groupby(ordered, key=lambda c: mapping[c.top])]
-    return [sorted(line, key=lambda c: c.x0) for line in lines]
-
-
 def _rotated_lines_of(chars: Sequence[Char], x_tolerance: float) -> list[list[Char]]:
     mapping = _cluster_values((c.x0 for c in chars), x_tolerance)
     ordered = sorted(chars, key=lambda c: mapping[c.x0])
@@ -82,12 +76,24 @@ def _merge(chars: list[Char]) -> RawWord:
             first.size, first.bold, first.upright,
         )  # fmt: skip
     texts, x0s, tops, x1s, bottoms = list(zip(*chars, strict=False))[:5]
+    return RawWord(
+        _text_of(texts),
+        min(x0s),
+        min(tops),
+        max(x1s),
+        max(bottoms),
+        first.size,
+        first.bold,
+        first.upright,
+    )
+
+
+def _text_of(texts: Sequence[str]) -> str:
+    """The characters' texts joined, ligature glyphs expanded."""
     text = "".join(texts)
     if not text.isascii():
         text = "".join(LIGATURES.get(t, t) for t in texts)
-    return RawWord(
-        text, min(x0s), min(tops), max(x1s), max(bottoms), first.size, first.bold, first.upright
-    )
+    return text
 
 
 def _split_line(
@@ -135,19 +141,85 @@ def chars_to_words(
     """Words from characters in content order, grouped as pdfplumber's ``extract_words``.
 
     Args:
-        chars: the page's characters in content order.
+        chars: the page's characters in content order (a :class:`PageChars` is read column by
+            column, without a per-character object).
         x_tolerance: the widest gap (points) inside a word.
         y_tolerance: how far (points) ``top`` may move within a line.
 
     Returns:
         The words, line by line from the top as pdfplumber orders them.
     """
+    columns = PageChars.of(chars)
+    if not len(columns):
+        return []
+    # runs of characters with the same uprightness, each grouped on its own
+    upright = columns.upright
+    bounds = [0, *(np.flatnonzero(upright[1:] != upright[:-1]) + 1).tolist(), len(columns)]
     words: list[RawWord] = []
-    for upright, group in itertools.groupby(chars, key=lambda c: c.upright):
-        run = list(group)
-        lines = _lines_of(run, y_tolerance) if upright else _rotated_lines_of(run, x_tolerance)
-        for line in lines:
+    for a, b in itertools.pairwise(bounds):
+        run = columns[a:b]
+        if upright[a]:
+            words.extend(_upright_words(run, x_tolerance=x_tolerance, y_tolerance=y_tolerance))
+            continue
+        for line in _rotated_lines_of(list(run), x_tolerance):
             words.extend(
-                _split_line(line, upright=upright, x_tolerance=x_tolerance, y_tolerance=y_tolerance)
+                _split_line(line, upright=False, x_tolerance=x_tolerance, y_tolerance=y_tolerance)
             )
     return words
+
+
+def _upright_words(chars: PageChars, *, x_tolerance: float, y_tolerance: float) -> list[RawWord]:
+    """Words of a run of upright characters, computed on arrays (the rules of _split_line)."""
+    top = chars.top
+    # lines: clusters of ``top`` values, each joining when within tolerance of the one before
+    ordered = np.sort(top)
+    distinct = ordered[np.concatenate(([True], ordered[1:] != ordered[:-1]))]
+    cluster = np.concatenate(([0], np.cumsum(distinct[1:] > distinct[:-1] + y_tolerance)))
+    line = cluster[np.searchsorted(distinct, top)]
+    # by line, then by x0, then in content order (both sorts are stable)
+    by_x = np.argsort(chars.x0, kind="stable")
+    order = by_x[np.argsort(line[by_x], kind="stable")]
+    x0 = chars.x0[order]
+    x1 = chars.x1[order]
+    top = top[order]
+    line = line[order]
+    texts = chars.texts
+    text_of = [texts[i] for i in order.tolist()]
+    space = np.fromiter(map(str.isspace, text_of), dtype=bool, count=len(text_of))
+    # a word starts at a line's first character, after a space, at a gap wider than the
+    # tolerance, where a character starts left of the one before, or where ``top`` jumps
+    starts = np.ones(len(text_of), dtype=bool)
+    starts[1:] = (
+        (line[1:] != line[:-1])
+        | space[:-1]
+        | (x0[1:] < x0[:-1])
+        | (x0[1:] > x1[:-1] + x_tolerance)
+        | (np.abs(top[1:] - top[:-1]) > y_tolerance)
+    )
+    printed = np.flatnonzero(~space)
+    if not len(printed):
+        return []
+    first = np.flatnonzero(starts[printed])
+    heads = order[printed[first]]
+    pieces = [text_of[i] for i in printed.tolist()]
+    bounds = [*first.tolist(), len(printed)]
+    joined = "".join(pieces)
+    if len(joined) == len(pieces):
+        # one character per text: each word is a slice of the joined text
+        word_texts = [joined[a:b] for a, b in itertools.pairwise(bounds)]
+        if not joined.isascii():
+            word_texts = [t if t.isascii() else t.translate(_LIGATURE_TABLE) for t in word_texts]
+    else:
+        word_texts = [_text_of(pieces[a:b]) for a, b in itertools.pairwise(bounds)]
+    rows = zip(
+        word_texts,
+        np.minimum.reduceat(x0[printed], first).tolist(),
+        np.minimum.reduceat(top[printed], first).tolist(),
+        np.maximum.reduceat(x1[printed], first).tolist(),
+        np.maximum.reduceat(chars.bottom[order[printed]], first).tolist(),
+        chars.size[heads].tolist(),
+        chars.bold[heads].tolist(),
+        itertools.repeat(True),
+        strict=False,
+    )
+    return list(map(tuple.__new__, itertools.repeat(RawWord), rows))
