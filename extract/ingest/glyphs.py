@@ -120,7 +120,9 @@ class PageChars(Sequence[Char]):
 
 _NO_FLOATS = np.zeros(0, dtype=np.float64)
 _NO_FLAGS = np.zeros(0, dtype=bool)
-_EMPTY = PageChars([], *([_NO_FLOATS] * 5), _NO_FLAGS, _NO_FLAGS)
+_EMPTY = PageChars(
+    [], _NO_FLOATS, _NO_FLOATS, _NO_FLOATS, _NO_FLOATS, _NO_FLOATS, _NO_FLAGS, _NO_FLAGS
+)
 
 
 def read_chars(page: pdfium.PdfPage, height: float) -> PageChars:
@@ -140,12 +142,12 @@ def read_chars(page: pdfium.PdfPage, height: float) -> PageChars:
         textpage.close()
 
 
-def _chars_of(tp: object, height: float) -> PageChars:
+def _chars_of(tp: Any, height: float) -> PageChars:
     """Characters of the text page ``tp``; the per-character pdfium calls are driven from C."""
     count = raw.FPDFText_CountChars(tp)
     if count <= 0:
         return _EMPTY
-    handle = ctypes.cast(tp, ctypes.c_void_p)  # type: ignore[call-overload]
+    handle = ctypes.cast(tp, ctypes.c_void_p)
     kept, texts, gaps = _printed(tp, handle, count)
     n = len(kept)
     if not n:
@@ -157,7 +159,7 @@ def _chars_of(tp: object, height: float) -> PageChars:
     if not all(done):
         _fill_failed(boxes, done)
     # FS_RECTF holds (left, top, right, bottom) with the origin at the bottom left
-    rects = np.frombuffer(boxes, dtype=np.float32).reshape(n, 4).astype(np.float64)
+    rects = np.ctypeslib.as_array(boxes).reshape(n, 4).astype(np.float64)
     upright, size, bold = _styles(tp, handle, kept)
     bottom = height - rects[:, 3]
     top = np.where(upright & (size > 0), bottom - size, height - rects[:, 1])
@@ -216,7 +218,7 @@ def _printed(
     # all code units in one call (UTF-16LE, one unit per character index)
     buffer = ctypes.create_string_buffer((count + 1) * 2)
     raw.FPDFText_GetText(tp, 0, count, ctypes.cast(buffer, ctypes.POINTER(ctypes.c_ushort)))
-    codes = np.frombuffer(buffer, dtype="<u2", count=count).astype(np.int64)
+    codes = np.frombuffer(buffer.raw, dtype="<u2", count=count).astype(np.int64)
     special = (
         ((codes < 0x20) & (codes != 0x0A) & (codes != 0x0D))
         | ((codes >= 0xD800) & (codes <= 0xDFFF))
@@ -253,7 +255,8 @@ def _fill_failed(boxes: ctypes.Array[ctypes.c_float], done: list[int]) -> None:
     """Give each character whose box pdfium could not tell the box before it (zeros first)."""
     for k, ok in enumerate(done):
         if not ok:
-            boxes[4 * k : 4 * k + 4] = boxes[4 * k - 4 : 4 * k] if k else [0.0] * 4
+            for j in range(4 * k, 4 * k + 4):
+                boxes[j] = boxes[j - 4] if k else 0.0
 
 
 def _style_of(tp: object, i: int, matrix: object) -> tuple[bool, float, bool, float]:
@@ -267,12 +270,12 @@ def _style_of(tp: object, i: int, matrix: object) -> tuple[bool, float, bool, fl
     return upright, size, bold, font_size
 
 
-def _c_function(function: object, restype: type | None, *argtypes: type) -> Any:
+def _c_function(function: Any, restype: Any, *argtypes: Any) -> Any:
     """pdfium's ``function`` with a lean ctypes prototype (no argument checks if none given)."""
-    address = ctypes.cast(function, ctypes.c_void_p).value  # type: ignore[call-overload]
+    address = ctypes.cast(function, ctypes.c_void_p).value or 0
     prototype = ctypes.CFUNCTYPE(restype, *argtypes)(address)
     if not argtypes:
-        prototype.argtypes = None
+        prototype.argtypes = None  # type: ignore[assignment]  # ctypes: pass arguments as given
     return prototype
 
 
