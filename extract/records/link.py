@@ -295,24 +295,51 @@ def _group_key(text: str) -> str:
     return " ".join(words)
 
 
+#: Where a blanket statement puts an n ("n = 6 per group" in a caption, footnote, legend or
+#: paragraph): a size stated for the group itself ("FTZ 40 mg/kg/day (n = 8)") is more specific.
+_BLANKET_N = frozenset({"caption", "footnote", "legend", "paragraph"})
+
+
+def _stated_n(group: str | None, context: ArticleContext) -> int | None:
+    """The n the article states for ``group`` itself, matched on its name without "group" or
+    subject nouns, one name ending the other ("10 mg" ~ "MSF 10 mg")."""
+    if not group:
+        return None
+    key = _group_key(group)
+    if not key:
+        return None
+    for name, n in context.group_n.items():
+        if (
+            key == name
+            or key in name.split(" / ")
+            or name.endswith(" " + key)
+            or key.endswith(" " + name)
+        ):
+            return n
+    return None
+
+
 def link_n(draft: Draft, context: ArticleContext) -> Draft:
-    """Give a draft with no n the group's stated n, else the methods' per-group n (flagged)."""
-    if draft.n is not None or "n_subset" in draft.flags:
+    """Give a draft with no n the group's stated n, else the methods' per-group n (flagged).
+
+    An n from a blanket statement ("n = 6 per group" in a footnote) gives way to the n the
+    article states for the draft's group itself ("minipigs given X (n = 8)").
+    """
+    if "n_subset" in draft.flags:
+        return draft
+    if draft.n is not None:
+        if draft.how("n") in _BLANKET_N:
+            stated = _stated_n(draft.group, context)
+            if stated is not None and stated != draft.n:
+                return draft.with_found("n", "document", n=stated)
         return draft
     if "pooled" in draft.flags:
         if context.total_n is not None:
             return draft.with_found("n", "document", n=context.total_n)
         return draft
-    if draft.group:
-        key = _group_key(draft.group)
-        for name, n in context.group_n.items():
-            if key and (
-                key == name
-                or key in name.split(" / ")
-                or name.endswith(" " + key)
-                or key.endswith(" " + name)
-            ):
-                return draft.with_found("n", "document", n=n)
+    stated = _stated_n(draft.group, context)
+    if stated is not None:
+        return draft.with_found("n", "document", n=stated)
     if context.n_per_group is not None:
         if context.n_per_group_from == "legend":
             return draft.with_found("n", "legend", n=context.n_per_group).with_flag("n_from_legend")
