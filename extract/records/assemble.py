@@ -16,7 +16,7 @@ from extract.ingest.document import Document
 from extract.records.draft import Draft
 from extract.records.from_tables import table_drafts, table_order
 from extract.records.from_text import text_drafts
-from extract.records.link import finish, read_context
+from extract.records.link import finish, link_unit, read_context, units_by_outcome
 from extract.records.proposal import Proposal
 
 __all__ = ["first_pass", "drafts_of"]
@@ -50,7 +50,10 @@ def first_pass(document: Document, *, nlp: Any = None) -> list[Proposal]:
     context = read_context(document)
     proposals: list[Proposal] = []
     seen: set[str] = set()
-    for draft in drafts_of(document):
+    drafts = drafts_of(document)
+    units = units_by_outcome(drafts)
+    for draft in drafts:
+        draft = link_unit(draft, units)
         if not draft.outcome:
             draft = draft.with_flag("no_outcome")
         proposal = finish(draft, context)

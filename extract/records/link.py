@@ -361,6 +361,33 @@ def link_group(draft: Draft, context: ArticleContext) -> Draft:
     return draft.with_found("group", how, group=name).with_flag("group_from_dose_rank")
 
 
+def _outcome_key(outcome: str) -> str:
+    key = " ".join(outcome.lower().split())
+    return re.sub(r"^(?:change|changes|difference) (?:in|of) ", "", key)
+
+
+def units_by_outcome(drafts: list[Draft]) -> dict[str, str]:
+    """The unit the article writes for each outcome ("the OBS score changed by -4.1 points"),
+    keyed by the outcome without "change in"; an outcome written with two units is left out."""
+    seen: dict[str, set[str]] = {}
+    for draft in drafts:
+        if draft.outcome and draft.unit and draft.statistic not in ("count", "percent"):
+            seen.setdefault(_outcome_key(draft.outcome), set()).add(draft.unit)
+    return {key: next(iter(units)) for key, units in seen.items() if len(units) == 1}
+
+
+def link_unit(draft: Draft, units: dict[str, str]) -> Draft:
+    """Give a value with no unit the unit the article writes elsewhere for the same outcome
+    (a table column "OBS score, mean (SD)" takes the text's "points"; flag
+    ``unit_from_text``)."""
+    if draft.unit is not None or not draft.outcome or draft.statistic in ("count", "percent"):
+        return draft
+    unit = units.get(_outcome_key(draft.outcome))
+    if unit is None:
+        return draft
+    return draft.with_found("unit", "document", unit=unit).with_flag("unit_from_text")
+
+
 def link_dispersion(draft: Draft, context: ArticleContext) -> Draft:
     """Give a spread of unknown kind the methods' kind, else one assumed from its shape (flagged)."""
     if draft.dispersion_value is None or draft.dispersion_kind is not None:
