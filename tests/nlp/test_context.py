@@ -113,3 +113,51 @@ def test_lexicons_have_headers_and_entries(name: str) -> None:
     assert len(entries) > 10
     assert all(not entry.startswith("#") for entry in entries)
     assert list(entries) == sorted(entries, key=len, reverse=True)
+
+
+@pytest.mark.parametrize(
+    ("text", "groups"),
+    [
+        # A group named by its treatment and dose, or by placebo/vehicle (common practice).
+        ("Mass was 393.6 ± 7.0 g in rats given BDC 20 mg/kg.", ["BDC 20 mg/kg"]),
+        ("Time was 30.2 h in cultures given OVZ 10 μM (P = 0.01).", ["OVZ 10 μM"]),
+        (
+            "The score fell by 4.1 points with SVT 40 mg and by 0.9 with placebo.",
+            ["SVT 40 mg", "placebo"],
+        ),
+        # A control word before a subject noun names the control group.
+        ("At day 28, control minipigs (n = 6) had a body weight of 12.4 kg.", ["control"]),
+        # A group known by the rank of its dose.
+        ("With the highest dose, body weight was 9.4 ± 0.5 kg.", ["highest dose"]),
+        ("Analyses used ELISA 2 h later.", []),
+    ],
+)
+def test_groups_by_treatment(text: str, groups: list[str]) -> None:
+    assert _values(text, "group") == groups
+
+
+def test_intervention_keeps_its_dose() -> None:
+    assert _values("Cultures given OVZ 10 μM grew faster.", "intervention") == ["OVZ 10 μM"]
+
+
+@pytest.mark.parametrize(
+    ("text", "subjects"),
+    [
+        # Sex and strain words before the species noun belong to the subject; a run-in heading
+        # "Animals." is no subject (common practice in methods sections).
+        ("Animals. Male Ashfield Hooded rats were housed in pairs.", ["Male Ashfield Hooded rats"]),
+        ("Male Tallow-Creek (TC) mice were used.", ["Male Tallow-Creek (TC) mice"]),
+        ("Control mice were given vehicle.", ["mice"]),
+    ],
+)
+def test_subject_keeps_strain_and_sex(text: str, subjects: list[str]) -> None:
+    assert _values(text, "subject") == subjects
+
+
+def test_outcome_is_not_a_treatment_phrase() -> None:
+    text = (
+        "Control minipigs (n = 6) had a body weight of 12.4 ± 1.2 kg, whereas minipigs given "
+        "FTZ 40 mg/kg/day (n = 8) had 16.1 ± 1.6 kg."
+    )
+    mention = find_outcome(text, text.index("16.1"))
+    assert mention is not None and mention.value == "body weight"

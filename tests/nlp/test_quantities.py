@@ -275,3 +275,23 @@ def test_quantity_normalized_uses_units() -> None:
 
 def test_no_number_no_work() -> None:
     assert find_quantities("Mice were housed in standard cages.") == []
+
+
+@pytest.mark.parametrize(
+    ("cell", "unit", "unknown"),
+    [
+        # A unit the registry lacks is kept as written (UCUM has no "RFU"), flagged.
+        ("1213 ± 214 RFU", "RFU", True),
+        ("24.1 ± 1.3 g", "g", False),
+        ("1213 ± 214", None, False),
+    ],
+)
+def test_cell_keeps_an_unknown_unit(cell: str, unit: str | None, unknown: bool) -> None:
+    quantity = parse_cell(cell)
+    assert quantity is not None and quantity.unit == unit
+    assert ("unknown_unit" in quantity.flags) is unknown
+
+
+def test_cell_statistic_label_is_no_unit() -> None:
+    quantity = parse_cell("5 SD")
+    assert quantity is not None and quantity.unit is None

@@ -76,3 +76,21 @@ def test_not_sample_sizes(text: str) -> None:
 )
 def test_parse_number(word: str, value: int | None) -> None:
     assert parse_number(word) == value
+
+
+def test_an_outcome_before_n_is_not_a_group() -> None:
+    (size,) = find_sample_sizes("Body mass (n = 10) was lower in treated rats.")
+    assert size.n == 10 and size.group is None
+
+
+@pytest.mark.parametrize(
+    ("text", "n"),
+    [
+        # A number after a time word is a time, not a count (common practice).
+        ("Body mass at week 8 in each group. Bars show mean ± SEM.", None),
+        ("Bars show mean ± SEM; eight minipigs per group.", 8),
+    ],
+)
+def test_per_group_counts_and_times(text: str, n: int | None) -> None:
+    sizes = [s.n for s in find_sample_sizes(text) if s.scope == "per_group"]
+    assert sizes == ([n] if n is not None else [])
