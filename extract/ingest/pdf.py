@@ -243,6 +243,7 @@ def _assemble(path: Path, pages: list[_PageData], options: PDFSettings) -> Docum
     body_size = _body_size(pages)
     raw_blocks: list[RawBlock] = []
     previous: _PageData | None = None
+    seen: set[str] = set()
     for page in pages:
         gutter = find_gutter(page.lines, page.width)
         page.columns = 2 if gutter is not None else 1
@@ -251,7 +252,7 @@ def _assemble(path: Path, pages: list[_PageData], options: PDFSettings) -> Docum
         ordered = reading_order(page.lines, gutter)
         page_blocks = lines_to_blocks(ordered, body_size=body_size)
         if options.tables:
-            page_blocks = _unruled_tables(page, page_blocks, previous)
+            page_blocks = _unruled_tables(page, page_blocks, previous, seen)
         raw_blocks.extend(page_blocks)
         previous = page
 
@@ -314,13 +315,18 @@ def _document_doi(blocks: list[Block], margin: tuple[str, ...]) -> str | None:
 
 
 def _unruled_tables(
-    page: _PageData, blocks: list[RawBlock], previous: _PageData | None
+    page: _PageData, blocks: list[RawBlock], previous: _PageData | None, seen: set[str]
 ) -> list[RawBlock]:
     """Look below each "Table N" caption with no table under it for an unruled table, and at
-    the top of the page for a table continued from the page before."""
+    the top of the page for a table continued from the page before.
+
+    ``seen`` holds the labels of the tables found so far (updated here): a second caption with
+    a label already used ("Table 1 - source data 1") opens no table unless it says "continued".
+    """
     out = list(blocks)
     found: list[RawTable] = []
-    continued = _continuation(page, blocks, previous)
+    words = drop_line_numbers(page.words)
+    continued = _continuation(page, words, blocks, previous)
     if continued is not None:
         found.append(continued)
         page.tables.append(continued)
@@ -329,24 +335,24 @@ def _unruled_tables(
         if not caption or not caption[0].startswith("Table"):
             continue
         x0, top, x1, bottom = block.bbox
-        if any(t.bbox[1] >= bottom - 2 and t.bbox[1] - bottom < 60 for t in page.tables):
+        if caption[0] in seen and not caption[1]:
             continue
-        # a caption right under a table with no caption of its own is that table's caption
-        if any(
+        if any(t.bbox[1] >= bottom - 2 and t.bbox[1] - bottom < 60 for t in page.tables) or any(
+            # a caption right under a table with no caption of its own is that table's caption
             t.bbox[3] <= top + 2 and top - t.bbox[3] < 30 and not _captioned_above(t, blocks)
             for t in page.tables
         ):
+            seen.add(caption[0])
             continue
         limit = _next_below(page, blocks, block, bottom)
         if block.column:
             x0, x1 = min(x0, x1 - 1), x1
         else:
             x0, x1 = 0.0, page.width
-        table = find_unruled(
-            page.words, page.number, caption_bottom=bottom, x0=x0, x1=x1, limit=limit
-        )
+        table = find_unruled(words, page.number, caption_bottom=bottom, x0=x0, x1=x1, limit=limit)
         if table is None:
             continue
+        seen.add(caption[0])
         found.append(table)
         page.tables.append(table)
     for table in found:
@@ -376,7 +382,7 @@ def _captioned_above(table: RawTable, blocks: list[RawBlock]) -> bool:
 
 
 def _continuation(
-    page: _PageData, blocks: list[RawBlock], previous: _PageData | None
+    page: _PageData, words: list[RawWord], blocks: list[RawBlock], previous: _PageData | None
 ) -> RawTable | None:
     """An unruled table at the top of the page continuing the table that ended the page before.
 
@@ -394,7 +400,7 @@ def _continuation(
     if any(t.bbox[1] <= first + 5 for t in page.tables):
         return None  # a table with rules already found at the top
     table = find_unruled(
-        page.words,
+        words,
         page.number,
         caption_bottom=first - 1,
         x0=last.bbox[0] - 10,

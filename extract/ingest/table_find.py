@@ -16,15 +16,22 @@ from __future__ import annotations
 from collections.abc import Sequence
 
 from extract.ingest.glyphs import Segment
-from extract.ingest.table_text import cells_of, is_data_line, rows_of, table_from_text
+from extract.ingest.sections import caption_label
+from extract.ingest.table_text import (
+    MAX_GUESSED_HEADER,
+    cells_of,
+    is_data_line,
+    is_prose,
+    rows_of,
+    table_from_text,
+)
 from extract.ingest.tables import SNAP, RawTable, words_in
 from extract.ingest.words import RawWord
 
 #: A vertical gap wider than this many font sizes ends a table.
 ROW_GAP_EM = 2.2
-#: Justified prose stretches word spaces up to about this many font sizes; table cells are
-#: further apart.
-PROSE_GAP_EM = 1.5
+#: Lines of running text skipped right under a caption before a table starts.
+MAX_CAPTION_LINES = 2
 #: Horizontal rules at least this long (points) can be a table's top, header or bottom rule.
 MIN_RULE = 40.0
 
@@ -69,8 +76,10 @@ def find_rules_only(
         # one table: from the first rule to the last matching rule before a wide empty gap
         members = [same[0]]
         for j in same[1:]:
-            gap_words = words_in(words, (first.x0, rules[members[-1]].top, first.x1, rules[j].top))
-            if not gap_words:
+            band = rows_of(
+                words_in(words, (first.x0, rules[members[-1]].top, first.x1, rules[j].top))
+            )
+            if not _table_band(band, first.x1 - first.x0):
                 break
             members.append(j)
         if len(members) < 2:
@@ -80,7 +89,7 @@ def find_rules_only(
         inner = [rules[j].top for j in members[1:-1]]
         header_bottom = inner[0] if inner else None
         last_band = rows_of(words_in(words, (first.x0, rules[members[-2]].top, first.x1, bottom)))
-        if not any(is_data_line(row) for row in last_band):
+        if len(last_band) <= MAX_GUESSED_HEADER and not any(is_data_line(r) for r in last_band):
             # the last rule closes the header: the body runs on below it
             header_bottom = bottom
             below = [
@@ -108,20 +117,22 @@ def find_rules_only(
     return tables
 
 
+def _table_band(band: Sequence[Sequence[RawWord]], width: float) -> bool:
+    """Whether the lines between two rules can be part of a table: some words, no caption
+    ("Table 2. ..."), and not running text (a page frame, a boxed panel)."""
+    if not band:
+        return False
+    if any(caption_label(" ".join(w.text for w in line), bold=line[0].bold) for line in band):
+        return False
+    return sum(is_prose(line, width) for line in band) * 3 <= len(band)
+
+
 def _inside(seg: Segment, box: BBox) -> bool:
     return (
         box[0] - SNAP <= seg.x0
         and seg.x1 <= box[2] + SNAP
         and box[1] - SNAP <= seg.top <= box[3] + SNAP
     )
-
-
-def _is_prose(line: Sequence[RawWord], width: float) -> bool:
-    """A wide line of many words with no gap wider than a stretched word space."""
-    if len(line) <= 6 or (max(w.x1 for w in line) - min(w.x0 for w in line)) <= 0.6 * width:
-        return False
-    size = max(w.size for w in line)
-    return all(b.x0 - a.x1 <= PROSE_GAP_EM * size for a, b in zip(line, line[1:], strict=False))
 
 
 def _run_of_rows(
@@ -132,12 +143,17 @@ def _run_of_rows(
     last_bottom = start
     left: float | None = None
     sizes: list[float] = []
+    skipped = 0
     for line in lines:
         size = max(w.size for w in line)
         if line[0].top - last_bottom > ROW_GAP_EM * size:
             break
-        if width is not None and _is_prose(line, width):
-            break
+        if width is not None and is_prose(line, width):
+            if taken or skipped >= MAX_CAPTION_LINES:
+                break
+            skipped += 1  # the rest of a long caption set apart from its first line
+            last_bottom = max(w.bottom for w in line)
+            continue
         cells = cells_of(line)
         if len(cells) < 2:
             if left is not None and (

@@ -26,9 +26,15 @@ from extract.ingest.words import RawWord
 
 #: A gap wider than this many font sizes separates two cells on a row (a word space is ~0.3).
 CELL_GAP_EM = 0.45
+#: ... and wider than this many times the row's usual word space.
+SPACE_FACTOR = 1.6
 #: Header lines of one column whose baselines are at most this many font sizes apart are one
 #: wrapped cell (a font's leading is ~1.2); further apart they are separate header rows.
 STACK_EM = 1.4
+#: A run of more than six words wider than this share of the table area is prose, not a cell.
+PROSE_SHARE = 0.3
+#: Most header lines taken above the first body row when no rule marks the header.
+MAX_GUESSED_HEADER = 5
 #: Points by which a header cell is widened before it is tested against the header rows.
 ROW_SLACK = 1.5
 
@@ -49,11 +55,20 @@ def rows_of(words: Sequence[RawWord]) -> list[list[RawWord]]:
 
 
 def cells_of(row: Sequence[RawWord]) -> list[list[RawWord]]:
-    """A row's words split into cells at gaps wider than :data:`CELL_GAP_EM` font sizes."""
+    """A row's words split into cells at gaps wider than a word space.
+
+    A gap splits when it is wider than :data:`CELL_GAP_EM` font sizes and clearly wider
+    (:data:`SPACE_FACTOR`) than the row's usual word space, so the stretched but equal spaces
+    of a justified line of prose keep it whole.
+    """
+    gaps = [b.x0 - a.x1 for a, b in zip(row, row[1:], strict=False)]
+    size = max(max((w.size for w in row), default=4.0), 4.0)
+    spaces = sorted(g for g in gaps if 0 <= g < size)
+    space = spaces[len(spaces) // 2] if spaces else 0.0
+    threshold = max(CELL_GAP_EM * size, SPACE_FACTOR * space)
     cells: list[list[RawWord]] = [[row[0]]]
-    for word in row[1:]:
-        prev = cells[-1][-1]
-        if word.x0 - prev.x1 > CELL_GAP_EM * max(prev.size, word.size, 4.0):
+    for word, gap in zip(row[1:], gaps, strict=False):
+        if gap > threshold:
             cells.append([word])
         else:
             cells[-1].append(word)
@@ -83,6 +98,14 @@ def is_data_line(row: Sequence[RawWord]) -> bool:
     cells = [cell_text(c) for c in cells_of(row)]
     values = cells[1:] if len(cells) > 1 else cells
     return sum(1 for c in values if _NUMERIC_CELL.match(c)) * 2 >= len(values) > 0
+
+
+def is_prose(line: Sequence[RawWord], width: float) -> bool:
+    """Whether a line holds a run of text, not cells: more than six words with no cell gap
+    spanning over :data:`PROSE_SHARE` of ``width``."""
+    return any(
+        len(cell) > 6 and cell[-1].x1 - cell[0].x0 > PROSE_SHARE * width for cell in cells_of(line)
+    )
 
 
 def column_bounds(rows: Sequence[Sequence[Sequence[RawWord]]]) -> list[tuple[float, float]]:
@@ -265,12 +288,14 @@ def table_from_text(
         The table, or ``None`` when the region has fewer than two rows or two columns.
     """
     rows = rows_of(words_in(words, box))
-    if len(rows) < 2:
-        return None
+    if len(rows) < 2 or sum(is_prose(row, box[2] - box[0]) for row in rows) * 3 > len(rows):
+        return None  # running text between two rules (a page frame, a boxed panel)
     if header_bottom is not None:
         n_head = sum(1 for row in rows if max(w.bottom for w in row) <= header_bottom + 1)
     else:
         n_head = next((i for i, row in enumerate(rows) if is_data_line(row)), 1)
+        if n_head > MAX_GUESSED_HEADER:
+            n_head = 1  # no body row where one is expected: take the first line as the header
     head, body = rows[:n_head], rows[n_head:]
     body_cells = [cells_of(row) for row in body]
     bounds = column_bounds(body_cells or [cells_of(row) for row in head])
