@@ -1,8 +1,9 @@
 """Pages per second: ``read_document`` vs pdfplumber ``extract_words`` + ``find_tables``.
 
 Run with ``make bench`` (``pytest -q -s tests/benchmarks``). Both readers see the same pages in
-the same run, side by side, after one warm-up page each; the table prints seconds, pages/s and the
-ratio (pdfplumber's time over ours). The target is a ratio of at least 5.
+the same run, side by side, after one warm-up page each (on the fixtures, the fastest of three
+alternating passes each). The table prints seconds, pages/s and the ratio (pdfplumber's time over
+ours). The target is a ratio of at least 5.
 """
 
 from __future__ import annotations
@@ -21,6 +22,8 @@ assert read_pdf
 REPO = Path(__file__).resolve().parents[2]
 FIXTURES = sorted((REPO / "fixtures" / "articles").glob("*.pdf"))
 CORPUS = sorted((REPO.parent / "shared" / "corpus" / "real").glob("*.pdf"))
+#: Passes over the fixtures per reader; each reader's fastest pass counts.
+REPEATS = 3
 
 
 def _ours(paths: list[Path]) -> tuple[int, float]:
@@ -51,9 +54,15 @@ def test_parse_speed() -> None:
     _plumber(sets[0][1][:1])
     rows = []
     for name, paths in sets:
-        pages, ours = _ours(paths)
-        pages_b, theirs = _plumber(paths)
-        assert pages == pages_b
+        # the best of a few alternating passes on the small set, so that other work on the
+        # machine does not decide the ratio (as timeit takes the minimum)
+        ours, theirs = float("inf"), float("inf")
+        for _ in range(REPEATS if name == "fixtures" else 1):
+            pages, seconds = _ours(paths)
+            ours = min(ours, seconds)
+            pages_b, seconds = _plumber(paths)
+            theirs = min(theirs, seconds)
+            assert pages == pages_b
         rows.append((name, pages, ours, theirs))
     print()
     print(
