@@ -1,15 +1,11 @@
-"""Tables from page geometry: ruled grids, tables with horizontal rules only, unruled tables.
-
-All three are built from the words and line segments that :mod:`extract.ingest.glyphs` reads:
+"""Tables from page geometry: the raw table record, ruled grids, and units in labels.
 
 * **ruled**: horizontal and vertical rules that meet make a grid; a cell with no rule between it
-  and its neighbour spans both, and its text is repeated in every grid column it covers;
-* **rules**: two or more full-width horizontal rules (top, below the header, bottom) and no
-  vertical ones; columns come from the white space shared by the body rows;
-* **unruled**: no rules at all; looked for only right below a "Table N" caption, so that body
-  text is never read as a table.
+  and its neighbour spans both, and its text is repeated in every grid column it covers.
 
-Units are taken from column headers and row labels ("Body mass (g)", "Glucose, mmol/L").
+Tables with horizontal rules only and unruled tables are found by
+:mod:`extract.ingest.table_find` and read by :mod:`extract.ingest.table_text`. Units are taken
+from column headers and row labels ("Body mass (g)", "Glucose, mmol/L").
 """
 
 from __future__ import annotations
