@@ -369,6 +369,12 @@ def _find_interventions(text: str, norm: str) -> list[ContextMention]:
     return found
 
 
+@lru_cache(maxsize=1)
+def _control_regex() -> re.Pattern[str]:
+    subjects = "|".join(re.escape(entry) for entry in load_lexicon("subjects"))
+    return re.compile(rf"\b({_CONTROL_WORDS})(?:-treated)?\s+(?:{subjects})\b", re.I)
+
+
 def _find_groups(text: str, norm: str) -> list[ContextMention]:
     found: list[ContextMention] = []
     for match in _DOSE_RANK.finditer(norm):
@@ -382,9 +388,7 @@ def _find_groups(text: str, norm: str) -> list[ContextMention]:
         start, end = match.start(1), match.end(1)
         value = " ".join(text[start:end].split())
         found.append(ContextMention("group", text[start:end], value, start, end))
-    subjects = "|".join(re.escape(entry) for entry in load_lexicon("subjects"))
-    control = re.compile(rf"\b({_CONTROL_WORDS})(?:-treated)?\s+(?:{subjects})\b", re.I)
-    for match in control.finditer(norm):
+    for match in _control_regex().finditer(norm):
         start, end = match.start(1), match.end(1)
         if not any(m.start < end and start < m.end for m in found):
             found.append(ContextMention("group", text[start:end], text[start:end], start, end))

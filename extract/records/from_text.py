@@ -52,7 +52,7 @@ _POOLED = re.compile(
 )
 #: A sentence about a subset named by what happened to it ("Among responders given X, ..."):
 #: the group's n does not count it.
-_SUBSET = re.compile(r"^\s*Among\s+(?:the\s+)?(?P<who>[a-z][\w-]*)", re.I)
+_SUBSET = re.compile(r"^\s*Among\s+(?:the\s+)?(?P<who>[a-z][a-z-]*)\b(?![\s\d]*\d)", re.I)
 _SUBJECT_NOUNS = frozenset(w.lower() for w in load_lexicon("subjects"))
 #: Words that end one clause's claim on a sample size: "..., whereas", "; ", " and ".
 _CLAUSE_BREAK = re.compile(r";|\bwhereas\b|\bwhile\b|\band\b|\bbut\b", re.I)
@@ -183,7 +183,11 @@ def sentence_drafts(
     per_group = find_group_n(findings.text)
     sentence = findings.text
     subset = _SUBSET.match(sentence)
-    is_subset = subset is not None and subset["who"].lower() not in _SUBJECT_NOUNS
+    is_subset = (
+        subset is not None
+        and subset["who"].lower() not in _SUBJECT_NOUNS
+        and subset["who"].lower() not in ("the", "these", "those", "them", "all", "both")
+    )
     drafts: list[Draft] = []
     previous_end = findings.start
     source = _source(block, findings.text)

@@ -169,12 +169,17 @@ _DOSE_NAME = re.compile(
 )
 
 
+_DOSE_IN_TEXT = re.compile(r"\d\s*(?:mg|µg|μg|ug|ng|g|mL|IU|U|nmol|µmol|μmol|mmol|mM|µM|μM|nM)\b")
+
+
 def _dose_groups(document: Document, group_n: dict[str, int]) -> tuple[str, ...]:
     """Group names that state a dose, from the text's group mentions, the stated group sizes
     and the table headers, in the article's own spelling."""
     names: list[str] = []
     for block in document.blocks:
-        if block.section in ("abstract", "results", "methods") or block.kind == "caption":
+        if (
+            block.section in ("abstract", "results", "methods") or block.kind == "caption"
+        ) and _DOSE_IN_TEXT.search(block.text):
             names.extend(m.value for m in find_context(block.text) if m.kind == "group")
     for table in document.tables:
         for cell in table.cells:

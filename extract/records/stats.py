@@ -25,21 +25,31 @@ SMALL_SAMPLE_LIMIT = 60
 #: 2 × 1.96, the width of a 95% normal interval in standard errors (Cochrane 6.5.2.2).
 NORMAL_CI95_WIDTH = 3.92
 
-_SIMPSON_STEPS = 2000
+_SIMPSON_STEPS = 600
 
 
 def _t_density(x: float, df: int) -> float:
     """Student's t density with ``df`` degrees of freedom."""
-    log_norm = math.lgamma((df + 1) / 2) - math.lgamma(df / 2) - 0.5 * math.log(df * math.pi)
-    return math.exp(log_norm - (df + 1) / 2 * math.log1p(x * x / df))
+    return math.exp(_t_log_norm(df) - (df + 1) / 2 * math.log1p(x * x / df))
+
+
+@lru_cache(maxsize=256)
+def _t_log_norm(df: int) -> float:
+    return math.lgamma((df + 1) / 2) - math.lgamma(df / 2) - 0.5 * math.log(df * math.pi)
 
 
 def _t_cdf(x: float, df: int) -> float:
     """P(T <= x) for x >= 0, by Simpson's rule on the density from 0 to x."""
     h = x / _SIMPSON_STEPS
-    total = _t_density(0.0, df) + _t_density(x, df)
+    log_norm = _t_log_norm(df)
+    power = (df + 1) / 2
+
+    def density(t: float) -> float:
+        return math.exp(log_norm - power * math.log1p(t * t / df))
+
+    total = density(0.0) + density(x)
     for i in range(1, _SIMPSON_STEPS):
-        total += (4 if i % 2 else 2) * _t_density(i * h, df)
+        total += (4 if i % 2 else 2) * density(i * h)
     return 0.5 + total * h / 3
 
 
@@ -64,7 +74,7 @@ def t_quantile(p: float, df: int) -> float:
     low, high = 0.0, 1.0
     while _t_cdf(high, df) < p:
         high *= 2
-    for _ in range(50):
+    while high - low > 1e-9:
         mid = (low + high) / 2
         if _t_cdf(mid, df) < p:
             low = mid
