@@ -95,6 +95,22 @@ class FileReport:
     proposals: int = 0
     added: int = 0
     note: str | None = None
+    #: Of ``proposals``: read from table cells (the rest from sentences).
+    from_tables: int = 0
+    #: Of ``proposals``: below :data:`DOUBT_CONFIDENCE` confidence, for a closer look.
+    doubtful: int = 0
+
+
+#: Proposals under this confidence are counted as doubtful in the batch summary.
+DOUBT_CONFIDENCE = 0.7
+
+
+def _breakdown(proposals: Sequence[Proposal]) -> dict[str, int]:
+    """How many proposals came from tables and how many are doubtful (for the summary)."""
+    return {
+        "from_tables": sum(1 for p in proposals if p.source.kind == "table"),
+        "doubtful": sum(1 for p in proposals if p.confidence < DOUBT_CONFIDENCE),
+    }
 
 
 @dataclass(frozen=True)
@@ -303,6 +319,7 @@ def run_batch(
             article=stored[0].article if stored else item.doi,
             proposals=len(stored),
             note="already processed with these extractor versions",
+            **_breakdown(stored),
         )
         if on_file:
             on_file(str(item.path), reports[item.path])
@@ -325,6 +342,7 @@ def run_batch(
                 article=document.doi or document.name,
                 proposals=len(proposals),
                 added=added,
+                **_breakdown(proposals),
             )
         reports[Path(path)] = report
         if on_file:

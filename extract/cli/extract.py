@@ -12,7 +12,7 @@ from rich.console import Console
 from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 from rich.table import Table
 
-from extract.run import BatchReport, FileReport, default_workers, run_batch
+from extract.run import DOUBT_CONFIDENCE, BatchReport, FileReport, default_workers, run_batch
 
 VERIFY_NOTE = (
     "Proposals are suggestions: a curator must verify each against the article before use; "
@@ -134,6 +134,37 @@ def _run(
         )
 
 
+#: Up to this many articles, the summary lists each one.
+ARTICLE_ROWS = 40
+
+
+def _per_article(report: BatchReport) -> Table:
+    """One row per article read now or before: where its proposals came from, how many to doubt."""
+    table = Table(
+        title="proposed per article",
+        title_justify="left",
+        caption=f"low confidence: under {DOUBT_CONFIDENCE}; look at these first",
+        caption_justify="left",
+    )
+    table.add_column("file")
+    table.add_column("proposals", justify="right")
+    table.add_column("text", justify="right")
+    table.add_column("tables", justify="right")
+    table.add_column("low confidence", justify="right")
+    for item in report.files:
+        if item.status not in ("extracted", "skipped"):
+            continue
+        name = Path(item.path).name + (" (done before)" if item.status == "skipped" else "")
+        table.add_row(
+            name,
+            str(item.proposals),
+            str(item.proposals - item.from_tables),
+            str(item.from_tables),
+            str(item.doubtful),
+        )
+    return table
+
+
 def _summarise(
     console: Console, report: BatchReport, *, store_name: str | None, jsonl: str | None
 ) -> None:
@@ -156,6 +187,8 @@ def _summarise(
     if store_name is not None:
         table.add_row(f"proposals added to {store_name}", str(added))
     console.print(table)
+    if 0 < articles <= ARTICLE_ROWS:
+        console.print(_per_article(report))
     for item in report.files:
         if item.status == "replaced":
             console.print(f"{item.path}: {item.note}")

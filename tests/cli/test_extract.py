@@ -134,3 +134,20 @@ def test_help_lists_options_the_caution_and_a_docs_entry() -> None:
     assert "clinical decisions" in " ".join(result.output.split())
     docs = Path(__file__).resolve().parents[2] / "docs" / "proposal-record.md"
     assert "winnow extract" in docs.read_text(encoding="utf-8")
+
+
+def test_summary_lists_each_article_with_its_counts(first_run: tuple) -> None:
+    batch, db, out, result = first_run
+    records = [json.loads(line) for line in out.read_text(encoding="utf-8").splitlines()]
+    rows = {
+        line.split("│")[1].strip(): [cell.strip() for cell in line.split("│")[2:6]]
+        for line in result.output.splitlines()
+        if line.startswith("│ fx")
+    }
+    files = {record["file"] for record in records}
+    assert set(rows) == files
+    for name, (total, text, tables, _low) in rows.items():
+        mine = [r for r in records if r["file"] == name]
+        assert int(total) == len(mine)
+        assert int(tables) == sum(1 for r in mine if r["source"]["kind"] == "table")
+        assert int(text) == sum(1 for r in mine if r["source"]["kind"] == "text")
