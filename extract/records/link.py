@@ -132,7 +132,7 @@ def read_context(document: Document, *, subject: str | None = None) -> ArticleCo
         time_point=_methods_time_point(mentions),
         n_per_group_from=n_from,
         total_n=_total_n(everything),
-        dose_groups=_dose_groups(document, group_n),
+        dose_groups=_dose_groups(document, group_n) if _DOSE_RANK.search(everything) else (),
         abbreviations=_abbreviations(document),
     )
 
@@ -169,6 +169,10 @@ _DOSE_NAME = re.compile(
 )
 
 
+#: Only an article that names a group by the rank of its dose needs its dose groups.
+_DOSE_RANK = re.compile(
+    r"\b(?:highest|lowest|largest|smallest|top)[\s-]+(?:dose|concentration)", re.I
+)
 _DOSE_IN_TEXT = re.compile(r"\d\s*(?:mg|µg|μg|ug|ng|g|mL|IU|U|nmol|µmol|μmol|mmol|mM|µM|μM|nM)\b")
 
 
