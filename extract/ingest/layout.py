@@ -16,6 +16,7 @@ from dataclasses import dataclass
 from functools import cached_property
 
 from extract.ingest.sections import caption_label
+from extract.ingest.tables import RawTable
 from extract.ingest.words import RawWord
 
 #: A gap wider than this many font sizes splits a line into two (column gutter, table cell).
@@ -352,3 +353,19 @@ def _continues(current: list[Line], line: Line, same_column: bool, body_size: fl
     if line.x0 - left > 1.2 * size and line.x1 - line.x0 > 0:
         return False
     return not (prev.x0 - line.x0 > 3 * size)
+
+
+@dataclass
+class PageData:
+    """One page while a PDF is read: its words, text lines (tables' words left out), tables
+    found so far, and the running-header text taken out of its margins."""
+
+    number: int
+    width: float
+    height: float
+    words: list[RawWord]
+    lines: list[Line]
+    tables: list[RawTable]
+    has_text: bool
+    columns: int = 1
+    margin_text: tuple[str, ...] = ()
