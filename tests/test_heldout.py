@@ -40,20 +40,10 @@ def heldout(tmp_path_factory: pytest.TempPathFactory) -> dict[str, Scores]:
     return scores
 
 
-@pytest.mark.xfail(
-    strict=False,
-    reason="measured on the held-out PDFs at ace081f: value F1 0.849, complete-record F1 0.682 "
-    "(baseline 0.099 / 0.000); see docs/accuracy.md",
-)
 def test_heldout_value_f1_target(heldout: dict[str, Scores]) -> None:
     assert heldout["winnow"].value.fscore >= VALUE_F1_TARGET
 
 
-@pytest.mark.xfail(
-    strict=False,
-    reason="measured on the held-out PDFs at ace081f: value F1 0.849, complete-record F1 0.682 "
-    "(baseline 0.099 / 0.000); see docs/accuracy.md",
-)
 def test_heldout_complete_record_f1_target(heldout: dict[str, Scores]) -> None:
     assert heldout["winnow"].complete.fscore >= COMPLETE_F1_TARGET
 
