@@ -1,7 +1,8 @@
 """Headings, captions and footnotes: what a text block is and which section it belongs to.
 
 Section headings are mapped to the canonical names of :data:`~extract.ingest.document.SECTION_NAMES`
-by their words ("Materials and methods" -> methods). A heading that maps to no canonical name but
+by their first words with the table shared with the JATS reader
+(:mod:`extract.ingest.headings`; "Materials and methods" -> methods). A heading that maps to no canonical name but
 is a known back-matter heading ("Acknowledgements", "Funding") opens an ``other`` section; any
 other short bold line is a subheading and keeps the current section.
 """
@@ -10,32 +11,8 @@ from __future__ import annotations
 
 import re
 
-#: Heading words -> canonical section, tried in this order.
-HEADING_PATTERNS: tuple[tuple[str, re.Pattern[str]], ...] = (
-    ("abstract", re.compile(r"^(abstract|summary|resumo|resumen)\b")),
-    ("introduction", re.compile(r"^(introduction|background|introdução)\b")),
-    (
-        "methods",
-        re.compile(
-            r"^(materials?\s+and\s+methods|methods?|methodology|experimental\s+procedures"
-            r"|patients\s+and\s+methods|subjects\s+and\s+methods|study\s+design|métodos?)\b"
-        ),
-    ),
-    ("results", re.compile(r"^(results|findings|resultados)\b")),
-    ("discussion", re.compile(r"^(discussion|conclusions?|discussão|concluding\s+remarks)\b")),
-    ("references", re.compile(r"^(references|bibliography|literature\s+cited|referências)\b")),
-    ("legends", re.compile(r"^(figure\s+legends|legends|figure\s+captions)\b")),
-    (
-        "other",
-        re.compile(
-            r"^(acknowledge?ments?|funding|conflicts?\s+of\s+interest|competing\s+interests?"
-            r"|author\s+contributions?|data\s+availability|supplementary|supporting\s+information"
-            r"|ethics|declarations?|abbreviations)\b"
-        ),
-    ),
-)
+from extract.ingest.headings import clean_heading, heading_to_section
 
-_NUMBERING = re.compile(r"^(\d+(\.\d+)*\.?|[IVX]+\.)\s+")
 CAPTION = re.compile(
     r"^(?P<kind>Table|Fig\.?|Figure)\s+(?P<num>S?\d+[A-Za-z]?)(?P<cont>\s*\((continued|cont\.?)\))?"
     r"\s*[.:|\-–—]?\s*",
@@ -50,19 +27,15 @@ DOI = re.compile(r"\b(10\.\d{4,9}/[^\s\"<>]+)", re.IGNORECASE)
 def heading_section(text: str) -> str | None:
     """The canonical section a heading opens, or ``None`` when it is not a section heading.
 
+    The heading's first words decide (:func:`~extract.ingest.headings.heading_to_section`);
+    a line of more than six words is no section heading.
+
     >>> heading_section("2. Materials and Methods"), heading_section("Animals")
     ('methods', None)
     """
-    clean = _NUMBERING.sub("", text.strip()).strip().rstrip(".:").lower()
-    clean = re.sub(r"\s+", " ", clean)
-    if len(clean.split()) > 6:
+    if len(clean_heading(text).split()) > 6:
         return None
-    for name, pattern in HEADING_PATTERNS:
-        if pattern.match(clean):
-            if name == "results" and clean.startswith("results and discussion"):
-                return "results"
-            return name
-    return None
+    return heading_to_section(text)
 
 
 def caption_label(text: str, *, bold: bool = True) -> tuple[str, bool] | None:
