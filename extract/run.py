@@ -105,12 +105,14 @@ class FileReport:
 DOUBT_CONFIDENCE = 0.7
 
 
-def _breakdown(proposals: Sequence[Proposal]) -> dict[str, int]:
-    """How many proposals came from tables and how many are doubtful (for the summary)."""
-    return {
-        "from_tables": sum(1 for p in proposals if p.source.kind == "table"),
-        "doubtful": sum(1 for p in proposals if p.confidence < DOUBT_CONFIDENCE),
-    }
+def _from_tables(proposals: Sequence[Proposal]) -> int:
+    """How many proposals came from table cells (for the summary)."""
+    return sum(1 for p in proposals if p.source.kind == "table")
+
+
+def _doubtful(proposals: Sequence[Proposal]) -> int:
+    """How many proposals are under :data:`DOUBT_CONFIDENCE` (for the summary)."""
+    return sum(1 for p in proposals if p.confidence < DOUBT_CONFIDENCE)
 
 
 @dataclass(frozen=True)
@@ -319,7 +321,8 @@ def run_batch(
             article=stored[0].article if stored else item.doi,
             proposals=len(stored),
             note="already processed with these extractor versions",
-            **_breakdown(stored),
+            from_tables=_from_tables(stored),
+            doubtful=_doubtful(stored),
         )
         if on_file:
             on_file(str(item.path), reports[item.path])
@@ -342,7 +345,8 @@ def run_batch(
                 article=document.doi or document.name,
                 proposals=len(proposals),
                 added=added,
-                **_breakdown(proposals),
+                from_tables=_from_tables(proposals),
+                doubtful=_doubtful(proposals),
             )
         reports[Path(path)] = report
         if on_file:

@@ -432,18 +432,36 @@ def normalize(value: float, unit_text: str | None) -> Normalized:
             flags=("no_canonical_unit",),
             dimension=info.dimension,
         )
-    expression, power, canonical_ucum = info.canonical
-    ureg = get_registry()
-    converted = (value * info.quantity).to(ureg.parse_expression(expression).units)
-    new_value = float(converted.magnitude) / 10.0**power
+    _, _, canonical_ucum = info.canonical
+    scale, offset = _to_canonical(unit_text.strip())
     return Normalized(
-        value=_tidy(new_value),
+        value=_tidy(scale * value + offset),
         unit=unit_text,
         ucum=info.ucum,
         canonical_unit=canonical_ucum,
         known=True,
         dimension=info.dimension,
     )
+
+
+@lru_cache(maxsize=4096)
+def _to_canonical(unit_text: str) -> tuple[float, float]:
+    """The map ``value -> scale * value + offset`` from a unit to its canonical unit.
+
+    Every conversion between units is affine (a factor, plus an offset for temperatures), so
+    two points computed by pint give the whole map; a batch pays pint's cost once per unit
+    spelling instead of once per value.
+    """
+    info = _unit_info(unit_text)
+    assert info is not None and info.canonical is not None  # callers check both
+    expression, power, _ = info.canonical
+    target = get_registry().parse_expression(expression).units
+
+    def at(value: float) -> float:
+        return float((value * info.quantity).to(target).magnitude) / 10.0**power
+
+    offset = at(0.0)
+    return at(1.0) - offset, offset
 
 
 def _tidy(number: float) -> float:

@@ -156,3 +156,28 @@ def test_strict_helpers_raise_unit_error() -> None:
 def test_clean_unit_text(written: str, cleaned: str) -> None:
     assert clean_unit_text(written) == cleaned
     assert clean_unit_text(cleaned) == cleaned  # idempotent: the registry runs it again
+
+
+@pytest.mark.parametrize("fahrenheit", [98.6, 32.0, -40.0, 212.0])
+def test_normalize_temperature_offset_survives_caching(fahrenheit: float) -> None:
+    # NIST SP 811 (2008), B.9: t/°C = (t/°F − 32)/1.8. Offset units need the affine map,
+    # not a bare factor; repeated calls hit the per-unit cache and must agree.
+    first = normalize(fahrenheit, "°F")
+    again = normalize(fahrenheit, "°F")
+    assert first.canonical_unit == "Cel"
+    assert first.value == pytest.approx((fahrenheit - 32) / 1.8)
+    assert again == first
+
+
+@pytest.mark.parametrize(
+    ("value", "unit", "target"),
+    [(0.42, "mg/dL", "g/L"), (7.3, "×10³/µL", "10**9/L"), (120.0, "mm Hg", "mmHg")],
+)
+def test_normalize_agrees_with_pint_conversion(value: float, unit: str, target: str) -> None:
+    # Reference library: pint's own conversion of the same quantity.
+    ureg = get_registry()
+    canonical = ureg.parse_expression(target)
+    expected = (value * parse_unit(unit)).to(canonical.units)
+    assert normalize(value, unit).value == pytest.approx(
+        float(expected.magnitude) / float(canonical.magnitude)
+    )
