@@ -9,6 +9,7 @@ found there as a continuation, is merged into the table before, its repeated hea
 from __future__ import annotations
 
 import logging
+from collections.abc import Sequence
 from dataclasses import replace
 
 from extract.ingest.document import Block, Table, TableCell
@@ -100,14 +101,63 @@ def merge_tables(
 
 
 def _same_header(table: Table, raw: RawTable) -> bool:
+    """Whether the table on the next page opens with this table's header."""
     header = [tuple(row) for row in table.grid()[: table.header_rows]]
-    return bool(header) and list(raw.rows[: raw.header_rows or 1]) == header[: raw.header_rows or 1]
+    if not header or not raw.rows:
+        return False
+    if list(raw.rows[: raw.header_rows or 1]) == header[: raw.header_rows or 1]:
+        return True
+    return repeats_header(raw.rows[0], header)
+
+
+def repeats_header(row: Sequence[str], header: Sequence[Sequence[str]]) -> bool:
+    """Whether a row repeats a table's header, as a continued table prints it again.
+
+    Each cell must be empty or read as the header of its column: the text of one header row
+    there, or the header rows' texts there joined (a two-row header read as one wrapped row).
+    At least one cell must hold header text.
+
+    >>> header = [("Outcome", "Week 4", "Week 4"), ("Outcome", "Vehicle", "Dose")]
+    >>> repeats_header(("", "Vehicle", "Dose"), header)
+    True
+    >>> repeats_header(("Outcome", "Week 4 Vehicle", "Week 4 Dose"), header)
+    True
+    >>> repeats_header(("Marker 1", "1.1", "1.2"), header)
+    False
+    """
+    if not header or len(row) != len(header[0]):
+        return False
+    filled = 0
+    for c, text in enumerate(row):
+        text = " ".join(text.split())
+        if not text:
+            continue
+        column: list[str] = []
+        for head in header:
+            cell = " ".join(head[c].split()) if c < len(head) else ""
+            if cell and cell not in column:
+                column.append(cell)
+        if text not in column and text != " ".join(column):
+            return False
+        filled += 1
+    return filled > 0
 
 
 def _append(table: Table, raw: RawTable, notes: list[str]) -> Table:
     skip = raw.header_rows if _same_header(table, raw) or raw.header_rows else 0
+    header = [tuple(row) for row in table.grid()[: table.header_rows]]
+    # a repeated header read with other row breaks than the first page's leaves some of its
+    # rows in the body: drop those that repeat the header
+    while skip < len(raw.rows) and skip < raw.header_rows + table.header_rows:
+        if not repeats_header(raw.rows[skip], header):
+            break
+        skip += 1
     rows = raw.rows[skip:]
     boxes = raw.boxes[skip:]
+    if not rows:
+        return replace(
+            table, pages=table.pages + (raw.page,), footnotes=table.footnotes + tuple(notes)
+        )
     if len(raw.rows[0]) != table.n_cols:
         logger.warning(
             "%s continues with %d columns, not %d", table.label, len(raw.rows[0]), table.n_cols
