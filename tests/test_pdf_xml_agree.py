@@ -60,18 +60,6 @@ def test_some_fixture_articles_have_both_formats() -> None:
     assert PAIRS, "the fixture set should include articles with both PDF and JATS XML"
 
 
-#: Measured at b61409a (data points from PDF / from XML / in both): fx01-cells 32/138/18,
-#: fx04-rodent 67/139/67, fx07-trial 23/31/11, fx10-tox 19/23/19. The PDF side loses the
-#: continuation of tables split over pages (read as a separate "Table N+1") and some table rows
-#: and units; see docs/accuracy.md.
-DISAGREE = pytest.mark.xfail(
-    strict=False,
-    reason="measured at b61409a: the PDF reading misses data points the XML gives "
-    "(split tables, rows, units); 115 of 331 XML data points agree",
-)
-
-
-@DISAGREE
 @pytest.mark.parametrize("stem", PAIRS)
 def test_pdf_and_xml_agree_on_data_points(
     stem: str, read_both: dict[str, tuple[Counter[Key], Counter[Key]]]
