@@ -303,10 +303,11 @@ def table_from_text(
         return None
     grid, boxes = header_grid(head, bounds, span_rules=span_rules)
     n_header = len(grid)
+    numeric = _numeric_columns(body_cells, bounds)
     for cells in body_cells:
         texts = [""] * len(bounds)
         cboxes: list[BBox | None] = [None] * len(bounds)
-        for cell in cells:
+        for cell in (part for whole in cells for part in split_at_columns(whole, bounds, numeric)):
             cbox = box_of(cell)
             for col in _columns_for(cbox[0], cbox[2], bounds)[:1]:
                 texts[col] = f"{texts[col]} {cell_text(cell)}".strip()
@@ -315,6 +316,52 @@ def table_from_text(
         boxes.append(tuple(cboxes))
     grid, boxes = _merge_wrapped_labels(grid, boxes, n_header)
     return RawTable(page, box, tuple(grid), tuple(boxes), n_header, style)
+
+
+def _numeric_columns(
+    body_cells: Sequence[Sequence[Sequence[RawWord]]], bounds: Sequence[tuple[float, float]]
+) -> list[bool]:
+    """Per column, whether most body cells that lie inside its x-range are numbers."""
+    counts = [[0, 0] for _ in bounds]
+    for cells in body_cells:
+        for cell in cells:
+            x0, _, x1, _ = box_of(cell)
+            for i, (b0, b1) in enumerate(bounds):
+                if x0 >= b0 - 1 and x1 <= b1 + 1:
+                    counts[i][0] += bool(_NUMERIC_CELL.match(cell_text(cell)))
+                    counts[i][1] += 1
+    return [total > 0 and 2 * hits > total for hits, total in counts]
+
+
+def split_at_columns(
+    cell: Sequence[RawWord], bounds: Sequence[tuple[float, float]], numeric: Sequence[bool]
+) -> list[Sequence[RawWord]]:
+    """A cell split where it runs across a column boundary the other rows set.
+
+    A row label set as close to its value as a word space reads as one cell with it. When the
+    cell's last words lie inside a later column's x-range, read as a number as that column's
+    other cells do, and the words before them end left of that column, they are that column's
+    value.
+
+    Args:
+        cell: the words of one cell, left to right.
+        bounds: the table's column x-ranges (from the rows with the most cells).
+        numeric: per column, whether its cells are numbers.
+
+    Returns:
+        The cell's parts, left to right (the cell itself when it keeps to one column).
+    """
+    if len(cell) < 2:
+        return [cell]
+    for split in range(1, len(cell)):
+        left, right = cell[:split], cell[split:]
+        rx0, rx1 = right[0].x0, max(w.x1 for w in right)
+        for i, (b0, b1) in enumerate(bounds):
+            if i == 0 or not numeric[i] or not (b0 - 1 <= rx0 and rx1 <= b1 + 1):
+                continue
+            if max(w.x1 for w in left) < b0 and _NUMERIC_CELL.match(cell_text(right)):
+                return [*split_at_columns(left, bounds, numeric), right]
+    return [cell]
 
 
 def _merge_wrapped_labels(

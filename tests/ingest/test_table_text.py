@@ -128,3 +128,45 @@ def test_rows_of_keeps_centred_header_apart_from_wrapped_lines() -> None:
     # a cell centred between two header lines sits 4.7 pt from each baseline: its own line
     out = words("A", 60, 100) + words("B", 60, 104.7) + words("C", 60, 109.4)
     assert [[w.text for w in row] for row in rows_of(out)] == [["A"], ["B"], ["C"]]
+
+
+def test_label_set_a_word_space_from_its_value_is_split_by_the_columns() -> None:
+    # the last row's long label ends one word space before its value, centred in the value
+    # column as on the other rows: on its own line it reads as one cell with the value
+    y_last = 130.0
+    glued = words("Plasma quorin after eight weeks (ng/mL)", 60, y_last)
+    width = 7 * EM + 2 * SPACE  # "7.4 ± 1.9", as wide as every value below
+    centre = glued[-1].x1 + SPACE + width / 2
+    lines = words("Characteristic", 60, 90, bold=True)
+    lines += words("Vehicle", centre, 90, bold=True, align="centre")
+    lines += words("Dose", centre + 70, 90, bold=True, align="centre")
+    body = [("Age (weeks)", "8.1 ± 0.4", "8.0 ± 0.5"), ("Body mass (g)", "4.1 ± 0.3", "3.8 ± 0.2")]
+    y = 104.0
+    for label, a, b in body:
+        lines += words(label, 60, y) + words(a, centre, y, align="centre")
+        lines += words(b, centre + 70, y, align="centre")
+        y += 13
+    value = words("7.4 ± 1.9", centre, y_last, align="centre")
+    assert abs(value[0].x0 - glued[-1].x1 - SPACE) < 0.01
+    lines += glued + value + words("9.7 ± 1.4", centre + 70, y_last, align="centre")
+    assert [len(cells_of(r)) for r in rows_of(lines)][-1] == 2  # label and value glued
+    table = table_from_text(lines, (55, 80, 400, 132), 1, style="unruled", header_bottom=None)
+    assert table is not None
+    assert table.rows[-1] == ("Plasma quorin after eight weeks (ng/mL)", "7.4 ± 1.9", "9.7 ± 1.4")
+    assert table.rows[1] == ("Age (weeks)", "8.1 ± 0.4", "8.0 ± 0.5")
+
+
+def test_label_word_inside_a_number_column_stays_with_the_label() -> None:
+    # a label's last word lies inside a column of numbers, a word space after the rest of the
+    # label: a word, not a number, so it is no value of that column
+    label = words("Triglyceride level total", 60, 130)
+    centre = (label[-1].x0 + label[-1].x1) / 2
+    lines = words("Outcome", 60, 90, bold=True) + words(
+        "Mean", centre, 90, bold=True, align="centre"
+    )
+    lines += words("Glucose", 60, 104) + words("123.45", centre, 104, align="centre")
+    lines += words("Insulin", 60, 117) + words("101.25", centre, 117, align="centre")
+    lines += label
+    table = table_from_text(lines, (55, 80, 340, 132), 1, style="unruled", header_bottom=None)
+    assert table is not None
+    assert table.rows[-1] == ("Triglyceride level total", "")
