@@ -13,6 +13,7 @@ from dataclasses import replace
 from extract.ingest.layout import Line, PageData, RawBlock, drop_line_numbers
 from extract.ingest.sections import caption_label
 from extract.ingest.table_find import find_unruled
+from extract.ingest.table_text import cells_of
 from extract.ingest.tables import RawTable
 from extract.ingest.words import RawWord
 
@@ -60,6 +61,7 @@ def unruled_tables(
     ``seen`` holds the labels of the tables found so far (updated here): a second caption with
     a label already used ("Table 1 - source data 1") opens no table unless it says "continued".
     """
+    blocks = join_caption_lines(blocks)
     out = list(blocks)
     found: list[RawTable] = []
     words = drop_line_numbers(page.words)
@@ -95,6 +97,47 @@ def unruled_tables(
     for table in found:
         out = [b for b in out if not all(_line_in(ln, table.bbox) for ln in b.lines)]
     return out
+
+
+def join_caption_lines(blocks: list[RawBlock]) -> list[RawBlock]:
+    """Table captions with the lines that finish them joined back on.
+
+    Double-spaced manuscripts set a caption's lines so far apart that its last line reads as a
+    block of its own, then as a table row. A line is the caption's when the caption's text runs
+    on (no full stop at its end), the line is set right under it in the same type (size and
+    weight), starts at the caption's left edge, holds one run of words (no cell gaps) and, under a
+    caption of several lines, keeps its line pitch.
+    """
+    out: list[RawBlock] = []
+    for block in blocks:
+        prev = out[-1] if out else None
+        if prev is not None and _finishes_caption(prev, block):
+            out[-1] = RawBlock(prev.lines + block.lines, prev.column)
+            continue
+        out.append(block)
+    return out
+
+
+def _finishes_caption(caption: RawBlock, block: RawBlock) -> bool:
+    label = block_caption(caption)
+    if label is None or not label[0].startswith("Table") or block_caption(block) is not None:
+        return False
+    last, line = caption.lines[-1], block.lines[0]
+    return (
+        len(block.lines) == 1
+        and line.page == last.page
+        and not caption.text.rstrip().endswith(".")
+        and line.bold == last.bold
+        and abs(line.size - last.size) <= 0.2
+        and abs(line.x0 - caption.bbox[0]) <= 2
+        and 0 <= line.top - last.bottom <= 2.2 * last.size
+        and len(cells_of(line.words)) == 1
+        # a caption of several lines goes on at its own line pitch
+        and (
+            len(caption.lines) < 2
+            or abs(line.bottom - last.bottom - (last.bottom - caption.lines[-2].bottom)) <= 1.5
+        )
+    )
 
 
 def _next_below(page: PageData, blocks: list[RawBlock], block: RawBlock | None, y: float) -> float:

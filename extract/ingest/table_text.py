@@ -296,6 +296,7 @@ def table_from_text(
         n_head = next((i for i, row in enumerate(rows) if is_data_line(row)), 1)
         if n_head > MAX_GUESSED_HEADER:
             n_head = 1  # no body row where one is expected: take the first line as the header
+        n_head = guessed_header_end(rows, n_head)
     head, body = rows[:n_head], rows[n_head:]
     body_cells = [cells_of(row) for row in body]
     bounds = column_bounds(body_cells or [cells_of(row) for row in head])
@@ -316,6 +317,41 @@ def table_from_text(
         boxes.append(tuple(cboxes))
     grid, boxes = _merge_wrapped_labels(grid, boxes, n_header)
     return RawTable(page, box, tuple(grid), tuple(boxes), n_header, style)
+
+
+def _is_bold(row: Sequence[RawWord]) -> bool:
+    return sum(len(w.text) for w in row if w.bold) * 2 > sum(len(w.text) for w in row)
+
+
+def guessed_header_end(rows: Sequence[Sequence[RawWord]], n_head: int) -> int:
+    """How many of the lines above the first body row are header rows, where no rule says.
+
+    The lines above the first row of numbers are the header, except body rows that hold no
+    number: where the header is set in bold, the plain lines under it are body rows (a text
+    value such as "Reference", a group name); otherwise a lone label set at the left edge of
+    the body's labels right above the first row of numbers is a group name.
+
+    Args:
+        rows: the table's lines, top-down.
+        n_head: the index of the first line read as a body row (see :func:`is_data_line`).
+
+    Returns:
+        The number of header rows (at least one).
+    """
+    if n_head <= 1:
+        return n_head
+    bold = [_is_bold(row) for row in rows[:n_head]]
+    if bold[0] and not all(bold):
+        last = max(i for i, b in enumerate(bold) if b)
+        return last + 1
+    if any(bold) or n_head >= len(rows):
+        return n_head
+    left = min(row[0].x0 for row in rows[n_head:])
+    while (
+        n_head > 1 and len(cells_of(rows[n_head - 1])) == 1 and rows[n_head - 1][0].x0 <= left + 2
+    ):
+        n_head -= 1
+    return n_head
 
 
 def _numeric_columns(
