@@ -57,7 +57,7 @@ def find_rules_only(
             runs on below its header rule.
     """
     rules = sorted(
-        (s for s in segments if s.horizontal and s.x1 - s.x0 > MIN_RULE),
+        (s for s in join_collinear(segments) if s.x1 - s.x0 > MIN_RULE),
         key=lambda s: s.top,
     )
     rules = [s for s in rules if not any(_inside(s, box) for box in taken)]
@@ -115,6 +115,19 @@ def find_rules_only(
         if table is not None:
             tables.append(table)
     return tables
+
+
+def join_collinear(segments: Sequence[Segment]) -> list[Segment]:
+    """Horizontal segments on one y that touch or overlap joined into one rule (a rule drawn
+    in pieces, one per column)."""
+    out: list[Segment] = []
+    for seg in sorted((s for s in segments if s.horizontal), key=lambda s: (round(s.top), s.x0)):
+        last = out[-1] if out else None
+        if last is not None and abs(seg.top - last.top) <= 1 and seg.x0 <= last.x1 + SNAP:
+            out[-1] = Segment(last.x0, last.top, max(last.x1, seg.x1), last.bottom)
+        else:
+            out.append(seg)
+    return out
 
 
 def _table_band(band: Sequence[Sequence[RawWord]], width: float) -> bool:

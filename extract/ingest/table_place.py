@@ -23,25 +23,33 @@ BBox = tuple[float, float, float, float]
 def plausible_tables(tables: list[RawTable], lines: list[Line], height: float) -> list[RawTable]:
     """Tables with a "Table N" caption next to them, or continuing a table from the page before.
 
-    Boxes, frames and shaded panels drawn around ordinary text are not tables.
+    Boxes, frames and shaded panels drawn around ordinary text are not tables, nor is a chart
+    drawn with rectangles (bars): its "grid" holds fewer distinct texts than half its rows, or
+    a "Figure N" caption is nearer to it than any "Table N" caption.
     """
     captions = [
-        ln
+        (c[0].startswith("Table"), ln)
         for ln in lines
-        if (c := caption_label(ln.text, bold=ln.words[0].bold)) and c[0].startswith("Table")
+        if (c := caption_label(ln.text, bold=ln.words[0].bold))
     ]
     kept = []
     for table in tables:
-        filled = sum(1 for row in table.rows for text in row if text.strip())
-        if len(table.rows) < 2 or len(table.rows[0]) < 2 or filled < 4:
+        texts = [text for row in table.rows for text in row if text.strip()]
+        if len(table.rows) < 2 or len(table.rows[0]) < 2 or len(texts) < 4:
             continue
+        if len(set(texts)) * 2 < len(table.rows):
+            continue  # one text repeated over a grid of bars: a chart
         x0, top, x1, bottom = table.bbox
-        near = any(
-            ln.x1 > x0 - 5
+        distances = [
+            (min(abs(top - ln.bottom), abs(ln.top - bottom)), is_table)
+            for is_table, ln in captions
+            if ln.x1 > x0 - 5
             and ln.x0 < x1 + 5
             and (-5 <= top - ln.bottom <= 120 or -5 <= ln.top - bottom <= 60)
-            for ln in captions
-        )
+        ]
+        if distances and not min(distances)[1]:
+            continue  # a figure's caption is the nearest: a chart or a drawing
+        near = any(is_table for _, is_table in distances)
         if near or (top < 0.3 * height and len(table.rows[0]) >= 3):
             kept.append(table)
     return kept

@@ -116,8 +116,8 @@ def find_ruled(words: Sequence[RawWord], segments: Sequence[Segment], page: int)
     for group_h, group_v in _connected(horizontal, vertical):
         xs = _cluster([s.x0 for s in group_v])
         ys = _cluster([s.top for s in group_h])
-        if len(xs) < 2 or len(ys) < 2:
-            continue
+        if len(xs) < 3 or len(ys) < 2:
+            continue  # a frame of outer rules only: its rules are read as a rules-only table
         tables.append(_grid_table(words, group_h, group_v, xs, ys, page))
     return tables
 
