@@ -128,4 +128,5 @@ def test_heldout_set_agrees_with_gold(heldout: dict[str, tuple[Document, dict]])
             if problems:
                 failures.append(f"{name} {check}: {problems[0]}")
     assert total > 0
+    print(f"held-out: {len(failures)} of {total} checks disagree")
     assert len(failures) <= HELDOUT_ALLOWED, "\n".join(failures)
