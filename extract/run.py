@@ -503,8 +503,11 @@ def run_for_evaluation(
     with_first_pass: bool = True,
     workers: int | None = None,
     timeout: float | None = None,
+    on_file: Callable[[str], None] | None = None,
 ) -> EvaluationInputs:
     """Run :func:`evaluate_file` over articles in the process pool.
+
+    ``on_file`` is called with each file's path as it finishes (for a progress display).
 
     Returns:
         Proposals in input order (first pass empty when ``with_first_pass`` is False).
@@ -523,6 +526,8 @@ def run_for_evaluation(
             failures.append(FileReport(path, "failed", note=_reason(error, path)))
         else:
             results[path] = result
+        if on_file is not None:
+            on_file(path)
 
     _pool(list(paths), function, finished, workers=workers, timeout=timeout)
     first: list[Proposal] = []

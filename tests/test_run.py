@@ -131,3 +131,15 @@ def test_extractor_key_is_stable_and_sorted() -> None:
     assert extractor_key_of(["b.rules@2", "a.rules@1", "b.rules@2"]) == "a.rules@1;b.rules@2"
     assert extractor_key_of({"a.rules": "1", "b.model": "0.2"}) == "a.rules@1;b.model@0.2"
     assert json.dumps(extractor_key_of([]))  # empty key is still a string
+
+
+def test_run_for_evaluation_reports_each_file_once_also_failures(folder: Path) -> None:
+    from extract.run import run_for_evaluation
+
+    broken = folder / "broken.pdf"
+    broken.write_bytes(b"%PDF-1.7\n1 0 obj << /Type /Catalog >>\n")
+    paths = sorted(p for p in folder.iterdir() if p.suffix in (".pdf", ".xml"))
+    seen: list[str] = []
+    inputs = run_for_evaluation(paths, with_first_pass=False, workers=1, on_file=seen.append)
+    assert sorted(seen) == sorted(str(p) for p in paths)
+    assert [Path(f.path).name for f in inputs.failures] == ["broken.pdf"]

@@ -7,6 +7,7 @@ from pathlib import Path
 
 import click
 from rich.console import Console
+from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 from rich.table import Table
 
 from extract.evaluate import (
@@ -82,11 +83,22 @@ def command(
         raise click.ClickException(f"{gold_dir}: no *.gold.json files")
     articles = [load_gold(path) for path in gold_files]
     given = load_proposals_jsonl(jsonl) if jsonl is not None else None
-    inputs = run_for_evaluation(
-        articles_beside(gold_files, source=source),
-        with_first_pass=jsonl is None,
-        workers=workers or default_workers(),
-    )
+    paths = articles_beside(gold_files, source=source)
+    with Progress(
+        TextColumn("[bold]evaluate"),
+        BarColumn(),
+        MofNCompleteColumn(),
+        TimeElapsedColumn(),
+        console=Console(stderr=True),
+        transient=True,
+    ) as progress:
+        task = progress.add_task("", total=len(paths))
+        inputs = run_for_evaluation(
+            paths,
+            with_first_pass=jsonl is None,
+            workers=workers or default_workers(),
+            on_file=lambda _path: progress.advance(task),
+        )
     proposals = given if given is not None else list(inputs.first_pass)
     systems = {
         "winnow": evaluate(articles, proposals),
