@@ -19,6 +19,7 @@ FOUND_WEIGHTS: dict[str, float] = {
     "sentence": 0.95,
     "header": 0.95,
     "row": 0.95,
+    "section": 0.85,
     "column": 0.95,
     "n_row": 0.95,
     "paragraph": 0.85,

@@ -10,17 +10,40 @@ from __future__ import annotations
 
 import re
 from collections.abc import Iterator
-from dataclasses import replace
+from dataclasses import dataclass, replace
 
 from extract.ingest.document import Document, Table
 from extract.nlp.quantities import Quantity, find_dispersion_statement
 from extract.records.draft import Draft
-from extract.records.patterns import find_group_n, find_n, group_and_n, read_cell, split_label
+from extract.records.patterns import (
+    clean_label,
+    find_group_n,
+    find_n,
+    group_and_n,
+    is_plausible_unit,
+    read_cell,
+    split_label,
+)
 from extract.records.proposal import Source
+from extract.records.table_labels import (
+    caption_outcome,
+    is_bare_integer,
+    is_count_caption,
+    is_count_level,
+    is_model_row,
+    is_ratio_label,
+    is_section_row,
+    is_spread_row,
+    is_stat_level,
+    numeric_header_row,
+    numeric_level,
+    section_above,
+    stat_row,
+)
 from extract.registry import register_extractor
 
 #: The extractor that reads table cells.
-EXTRACTOR = "tables.cells@2"
+EXTRACTOR = "tables.cells@3"
 
 _GROUP_WORDS = re.compile(
     r"\b(?:vehicle|control|controls|sham|placebo|saline|naive|naïve|untreated|treated|treatment|"
@@ -31,8 +54,8 @@ _GROUP_WORDS = re.compile(
 )
 _TIME_WORDS = re.compile(
     r"^\s*(?:(?:at\s+)?(?:week|wk|day|month|hour|h|min|year)s?\s*\d+|\d+\s*(?:weeks?|wk|days?|d|"
-    r"months?|hours?|h|min)|baseline|pre[- ]?(?:treatment|dose)?|post[- ]?(?:treatment|dose)?|"
-    r"endpoint|end of study|final)\s*$",
+    r"months?|mos?|hours?|h|min)|baseline|pre[- ]?(?:treatment|dose)?|post[- ]?(?:treatment|dose)?|"
+    r"endpoint|end of study|final|(?:18|19|20)\d\d)\s*$",
     re.I,
 )
 _P_HEADER = re.compile(
@@ -84,23 +107,55 @@ def orientation(table: Table) -> str:
     return "groups-in-columns" if col_score >= row_score else "groups-in-rows"
 
 
-def _header_levels(table: Table, col: int) -> tuple[str, str | None]:
-    """A column's header split into its main label and a time point from a time-like level."""
+@dataclass(frozen=True)
+class _Header:
+    """A column's header levels read apart: the group or outcome label, a time point, the
+    statistic a level names ("n" -> count, "Percent"), a whole-number level (a total or n) and
+    the full header as written."""
+
+    label: str
+    time_point: str | None = None
+    statistic: str | None = None
+    n: int | None = None
+    full: str = ""
+
+
+def _level_statistic(text: str) -> str | None:
+    if is_count_level(text):
+        return "count"
+    key = clean_label(text).lower()
+    if key in ("%", "percent", "percentage", "proportion"):
+        return "percent"
+    return "median" if key == "median" else "mean"
+
+
+def _header_levels(table: Table, col: int) -> _Header:
+    """A column's header split into its main label and what the other levels say."""
     parts: list[str] = []
     time_point: str | None = None
+    statistic: str | None = None
+    total: int | None = None
+    seen: list[str] = []
     for r in range(table.header_rows):
-        text = " ".join(table.cell(r, col).text.split())
-        if not text or text in parts:
+        text = clean_label(table.cell(r, col).text)
+        if not text or text in seen:
             continue
+        seen.append(text)
         if _TIME_WORDS.match(text) and time_point is None:
             time_point = text
+        elif col > 0 and numeric_level(text) is not None and total is None:
+            total = numeric_level(text)
+        elif col > 0 and table.header_rows > 1 and is_stat_level(text) and statistic is None:
+            statistic = _level_statistic(text)
         else:
             parts.append(text)
-    return " ".join(parts), time_point
+    label = " ".join(parts)
+    return _Header(label, time_point, statistic, total, " ".join(seen))
 
 
 def _is_n_label(label: str) -> bool:
-    return bool(_N_LABEL.match(label))
+    # "n (%)" heads counts with their percentages: data, not sample sizes.
+    return bool(_N_LABEL.match(label)) and "%" not in label
 
 
 def _int_cell(text: str) -> int | None:
@@ -124,8 +179,41 @@ def table_order(document: Document, table: Table, index: int) -> float:
     return float(len(document.blocks) + index)
 
 
+@dataclass(frozen=True)
+class _TableFacts:
+    """What a table states once for all its cells (caption, footnotes, orientation)."""
+
+    by_columns: bool
+    time_rows: bool
+    table_kind: str | None
+    table_n: int | None
+    time_point: str | None
+    median_table: bool
+    count_table: bool
+    caption_outcome: str | None
+
+
+def _facts(table: Table) -> _TableFacts:
+    body_labels = [table.row_label(r) for r in range(table.header_rows, table.n_rows)]
+    time_rows = sum(1 for label in body_labels if _TIME_WORDS.match(label)) > len(body_labels) / 2
+    texts = _table_texts(table)
+    caption_time = _TIME_IN_TEXT.search(texts)
+    return _TableFacts(
+        by_columns=time_rows or orientation(table) == "groups-in-columns",
+        time_rows=time_rows,
+        table_kind=find_dispersion_statement(texts),
+        table_n=find_group_n(texts),
+        time_point=(
+            caption_time.group(caption_time.lastindex or 1).lower() if caption_time else None
+        ),
+        median_table=bool(_MEDIAN.search(texts)) and not _MEAN.search(texts),
+        count_table=is_count_caption(table.caption),
+        caption_outcome=caption_outcome(table.caption),
+    )
+
+
 @register_extractor(
-    "tables.cells", 2, factory=None, description="data cells of tables, with headers, n and spread"
+    "tables.cells", 3, factory=None, description="data cells of tables, with headers, n and spread"
 )
 def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> list[Draft]:
     """One draft per data cell of ``table``, in row-major order.
@@ -136,52 +224,71 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
         order: the table's place in the document's reading order.
 
     Returns:
-        Drafts whose outcome, group, unit, n and dispersion kind come from the table alone
-        (cells, headers, caption and footnotes); linking fills the rest.
+        Drafts whose outcome, group, unit, n, statistic and dispersion kind come from the table
+        alone (cells, headers, caption and footnotes); linking fills the rest.
     """
     if table.n_rows <= table.header_rows or table.n_cols < 2:
         return []
+    if numeric_header_row(table):
+        table = replace(table, header_rows=table.header_rows - 1)
     table = _with_header_rows(table)
     if table.n_rows <= table.header_rows:
         return []
-    body_labels = [table.row_label(r) for r in range(table.header_rows, table.n_rows)]
-    time_rows = sum(1 for label in body_labels if _TIME_WORDS.match(label)) > len(body_labels) / 2
-    by_columns = time_rows or orientation(table) == "groups-in-columns"
-    texts = _table_texts(table)
-    table_kind = find_dispersion_statement(texts)
-    table_n = find_group_n(texts)
-    if table_n is None and not by_columns:
-        table_n = None
-    caption_time = _TIME_IN_TEXT.search(texts)
-    median_table = bool(_MEDIAN.search(texts)) and not _MEAN.search(texts)
-
+    facts = _facts(table)
     col_info = [_header_levels(table, c) for c in range(table.n_cols)]
+    n_cols_idx = [
+        c
+        for c in range(1, table.n_cols)
+        if _is_n_label(col_info[c].label)
+        or (not facts.by_columns and _is_n_label(table.cell(table.header_rows - 1, c).text))
+    ]
     skip_cols = {
         c
         for c in range(1, table.n_cols)
-        if _P_HEADER.match(col_info[c][0]) or _is_n_label(col_info[c][0])
+        if _P_HEADER.match(col_info[c].label)
+        or any(
+            _P_HEADER.match(clean_label(table.cell(r, c).text)) for r in range(table.header_rows)
+        )
     }
-    n_cols_idx = [c for c in range(1, table.n_cols) if _is_n_label(col_info[c][0])]
-    data_rows = [r for r in range(table.header_rows, table.n_rows)]
+    skip_cols.update(n_cols_idx)
+    data_rows = list(range(table.header_rows, table.n_rows))
     n_rows_idx = [r for r in data_rows if _is_n_label(table.row_label(r))]
 
     drafts: list[Draft] = []
+    at: dict[tuple[int, int], int] = {}
     for r in data_rows:
-        body_label = " ".join(table.row_label(r).split())
-        if r in n_rows_idx or _P_HEADER.match(body_label):
+        body_label = clean_label(table.row_label(r))
+        if r in n_rows_idx or _P_HEADER.match(body_label) or is_section_row(table, r):
             continue
+        if facts.by_columns and is_spread_row(body_label) and r > table.header_rows:
+            _attach_spread_row(table, r, body_label, drafts, at, skip_cols)
+            continue
+        row_stat = stat_row(body_label) if facts.by_columns else None
+        section = section_above(table, r)
         for c in range(1, table.n_cols):
             if c in skip_cols:
                 continue
             parsed = read_cell(table.cell(r, c).text)
             if parsed is None:
                 continue
-            row_label = body_label
-            col_label, time_point = col_info[c]
-            if time_rows:
+            header = col_info[c]
+            row_label, col_label, time_point = body_label, header.label, header.time_point
+            if facts.time_rows:
                 # Time points down the rows: the outcome and group come from the header levels.
-                row_label, col_label = _split_levels(table, c)
+                row_label, col_label = _split_levels(table, c, section, facts.caption_outcome)
                 time_point = body_label
+            elif row_stat is not None:
+                # "Mean (SD)" under a section row "Age": the section is the outcome.
+                row_label = section or facts.caption_outcome or body_label
+            elif facts.by_columns and section and is_model_row(body_label):
+                # "Model 2" under a section row "Heart failure": the section is the outcome.
+                col_label = f"{col_label}, {body_label}" if col_label else body_label
+                row_label = section
+            elif facts.count_table and facts.by_columns and facts.caption_outcome:
+                if is_bare_integer(table.cell(r, c).text):
+                    # "Number of cases, by region and species": both labels are strata.
+                    col_label = f"{col_label}, {body_label}" if col_label else body_label
+                    row_label = facts.caption_outcome
             draft = _cell_draft(
                 table,
                 parsed,
@@ -189,51 +296,94 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
                 c,
                 row_label=row_label,
                 col_label=col_label,
-                by_columns=by_columns,
+                by_columns=facts.by_columns,
                 order=order,
+                outcome_how=(
+                    "caption"
+                    if row_label == facts.caption_outcome and row_label != body_label
+                    else "section"
+                    if row_label == section and row_label != body_label
+                    else None
+                ),
             )
             if draft is None:
                 continue
-            drafts.append(
-                _fill_from_table(
-                    draft,
-                    table,
-                    parsed_unit=parsed.unit,
-                    parsed_kind=parsed.spread.kind if parsed.spread else None,
-                    row=r,
-                    col=c,
-                    by_columns=by_columns,
-                    table_kind=table_kind,
-                    table_n=table_n,
-                    n_from_row=_n_from(table, n_rows_idx, c, by_rows=True),
-                    n_from_col=_n_from(table, n_cols_idx, r, by_rows=False),
-                    time_point=time_point
-                    or (
-                        caption_time.group(caption_time.lastindex or 1).lower()
-                        if caption_time
-                        else None
-                    ),
-                    median_table=median_table,
-                )
+            draft = _fill_from_table(
+                draft,
+                table,
+                parsed_unit=parsed.unit,
+                parsed_kind=parsed.spread.kind if parsed.spread else None,
+                row=r,
+                col=c,
+                facts=facts,
+                header=header,
+                row_stat=row_stat,
+                outcome_label=row_label if facts.by_columns else col_label,
+                n_from_row=_n_from(table, n_rows_idx, c, by_rows=True),
+                n_from_col=_n_from(table, n_cols_idx, r, by_rows=False),
+                time_point=time_point or facts.time_point,
             )
+            at[(r, c)] = len(drafts)
+            drafts.append(draft)
     return drafts
 
 
-def _split_levels(table: Table, col: int) -> tuple[str, str]:
-    """For a table with time points down the rows: the outcome level (with a unit) and the group."""
+def _attach_spread_row(
+    table: Table,
+    row: int,
+    label: str,
+    drafts: list[Draft],
+    at: dict[tuple[int, int], int],
+    skip_cols: set[int],
+) -> None:
+    """A row "Inter-quartile range" under "Median": its pairs are the spread of the value
+    above in the same column (when that value has none of its own), never data points."""
+    kind = "IQR" if re.search(r"quartile|IQR", label, re.I) else None
+    kind = (
+        kind or find_dispersion_statement(label) or ("range" if "range" in label.lower() else None)
+    )
+    for c in range(1, table.n_cols):
+        index = at.get((row - 1, c))
+        if c in skip_cols or index is None:
+            continue
+        parsed = read_cell(table.cell(row, c).text)
+        above = drafts[index]
+        if parsed is None or above.dispersion_value is not None:
+            continue
+        spread = parsed.spread.value if parsed.spread is not None else parsed.value
+        if kind is None:
+            continue
+        drafts[index] = above.with_found(
+            "dispersion", "row", dispersion_value=spread, dispersion_kind=_fit_kind(kind, above)
+        )
+
+
+def _split_levels(
+    table: Table, col: int, section: str | None, from_caption: str | None
+) -> tuple[str, str]:
+    """For a table with time points down the rows: the outcome (the header level with a unit,
+    else the section row above, else the corner cell unless it only names the time axis, else
+    the caption's first phrase) and the group (the other header levels)."""
     outcome, groups = "", []
     for r in range(table.header_rows):
-        text = " ".join(table.cell(r, col).text.split())
-        if not text or text in groups or text == outcome:
+        text = clean_label(table.cell(r, col).text)
+        if not text or text in groups or text == outcome or is_stat_level(text):
+            continue
+        if numeric_level(text) is not None:
             continue
         if not outcome and split_label(text)[1]:
             outcome = text
         else:
             groups.append(text)
+    if not outcome and section:
+        outcome = section
     if not outcome:
-        outcome = " ".join(
-            " ".join(table.cell(r, 0).text.split()) for r in range(table.header_rows)
+        corner = " ".join(clean_label(table.cell(r, 0).text) for r in range(table.header_rows))
+        corner = " ".join(corner.split())
+        time_axis = re.fullmatch(
+            r"(?:year|years|time|time point|visit|period|date|week|day|month|hour)s?", corner, re.I
         )
+        outcome = corner if corner and not time_axis else (from_caption or corner)
     return outcome, " ".join(groups)
 
 
@@ -275,6 +425,7 @@ def _cell_draft(
     col_label: str,
     by_columns: bool,
     order: float,
+    outcome_how: str | None = None,
 ) -> Draft | None:
     cell = table.cell(row, col)
     outcome_label, group_label = (row_label, col_label) if by_columns else (col_label, row_label)
@@ -315,7 +466,7 @@ def _cell_draft(
         location=(table.label, row, col),
     )
     draft = draft.with_found("value", "cell").with_found(
-        "outcome", "row" if by_columns else "column"
+        "outcome", outcome_how or ("row" if by_columns else "column")
     )
     if group:
         draft = draft.with_found("group", "column" if by_columns else "row")
@@ -330,56 +481,99 @@ def _fill_from_table(
     parsed_kind: str | None,
     row: int,
     col: int,
-    by_columns: bool,
-    table_kind: str | None,
-    table_n: int | None,
+    facts: _TableFacts,
+    header: _Header,
+    row_stat: tuple[str, str | None] | None,
+    outcome_label: str,
     n_from_row: int | None,
     n_from_col: int | None,
     time_point: str | None,
-    median_table: bool,
 ) -> Draft:
-    row_label = table.row_label(row)
-    col_label = table.column_header(col)
-    outcome_label = row_label if by_columns else col_label
-    group_label = col_label if by_columns else row_label
-    # Unit: the cell, then the units ingest read from the outcome's label, then the label itself.
+    by_columns = facts.by_columns
+    group_label = table.column_header(col) if by_columns else table.row_label(row)
+    # Unit: the cell, then the units ingest read from the outcome's label, then the label itself;
+    # a header unit must read as a unit ("unspecified" or a place name in brackets is none).
     if parsed_unit:
         draft = draft.with_found("unit", "cell")
-    else:
+    elif draft.statistic != "count":
         units = table.row_units if by_columns else table.column_units
         index = row if by_columns else col
-        unit = units[index] if index < len(units) else None
+        unit = units[index] if index < len(units) and row_stat is None else None
         unit = unit or split_label(outcome_label)[1]
         if unit is None and col < len(table.column_units):
             unit = table.column_units[col]  # an outcome level above the groups
-        if unit:
+        if unit and is_plausible_unit(unit):
             draft = draft.with_found("unit", "header", unit=unit)
     # n: an "n" row/column, the group's header, then the caption or footnotes.
     n_line = n_from_row if by_columns else n_from_col
     header_n = group_and_n(group_label)[1]
+    if header_n is None and by_columns and header.statistic is None:
+        header_n = header.n  # a whole number under the group's name: its total or n
     if n_line is not None:
         draft = draft.with_found("n", "n_row", n=n_line)
     elif header_n is not None:
         draft = draft.with_found("n", "header", n=header_n)
-    elif table_n is not None:
-        draft = draft.with_found("n", "caption", n=table_n)
+    elif facts.table_n is not None:
+        draft = draft.with_found("n", "caption", n=facts.table_n)
     elif (single := find_n(" ".join(table.footnotes))) is not None:
         draft = draft.with_found("n", "footnote", n=single)
-    # Dispersion kind: the cell, the headers ("mean (SEM)"), then the caption or footnotes.
+    # Dispersion kind: the cell, the row's statistic label ("Median (min, max)"), the headers
+    # ("mean (SEM)"), then the caption or footnotes.
     if draft.dispersion_value is not None:
         kind = parsed_kind
         how = "cell"
+        if kind is None and row_stat is not None and row_stat[1] is not None:
+            kind, how = row_stat[1], "row"
         if kind is None:
             kind = find_dispersion_statement(" ".join(_stat_headers(table, row, col)))
             how = "header"
-        if kind is None and table_kind is not None:
-            kind, how = table_kind, "caption"
+        if kind is None and facts.table_kind is not None:
+            kind, how = facts.table_kind, "caption"
         if kind is not None:
             draft = draft.with_found("dispersion", how, dispersion_kind=_fit_kind(kind, draft))
-    if draft.statistic is None and median_table:
-        draft = draft.with_found("statistic", "caption", statistic="median")
+    draft = _table_statistic(draft, table, row, col, facts=facts, header=header, row_stat=row_stat)
     if time_point:
         draft = draft.with_found("time_point", "header", time_point=time_point)
+    return draft
+
+
+def _table_statistic(
+    draft: Draft,
+    table: Table,
+    row: int,
+    col: int,
+    *,
+    facts: _TableFacts,
+    header: _Header,
+    row_stat: tuple[str, str | None] | None,
+) -> Draft:
+    """The statistic of a cell, nearest statement first: the cell ("42 (37.5%)", "37.5%") > the
+    row's label ("Mean (SD)", "Median") > a header level ("n", "No.", "Percent", "Median") >
+    the caption ("Number of ...", "median (IQR)"). Linking then derives it from the dispersion
+    kind; a bare value with none of these is "single", never a mean."""
+    if draft.statistic is not None:
+        return draft
+    bare = draft.dispersion_value is None and is_bare_integer(table.cell(row, col).text)
+    corner = " ".join(table.cell(r, 0).text for r in range(table.header_rows))
+    if any(is_ratio_label(text) for text in (header.full, table.row_label(row), corner)):
+        return draft.with_found("statistic", "header", statistic="other")
+    if row_stat is not None:
+        return draft.with_found("statistic", "row", statistic=row_stat[0])
+    statistic = header.statistic
+    if (
+        statistic is None
+        and is_count_level(table.row_label(row))
+        and draft.dispersion_value is None
+    ):
+        statistic = "count"
+    if statistic == "count" and not bare:
+        statistic = None  # "n" over a mean ± SD is a sample-size label, not a count
+    if statistic is not None:
+        return draft.with_found("statistic", "header", statistic=statistic)
+    if facts.count_table and bare:
+        return draft.with_found("statistic", "caption", statistic="count")
+    if facts.median_table:
+        return draft.with_found("statistic", "caption", statistic="median")
     return draft
 
 

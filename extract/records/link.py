@@ -34,6 +34,7 @@ from extract.units import normalize
 CONFIDENCE_WEIGHTS: dict[str, float] = {
     "value": 3.0,
     "outcome": 2.0,
+    "statistic": 1.0,
     "group": 1.0,
     "unit": 1.0,
     "dispersion": 1.0,
@@ -417,38 +418,74 @@ def link_dispersion(draft: Draft, context: ArticleContext) -> Draft:
 
 
 def link_statistic(draft: Draft, context: ArticleContext) -> Draft:
-    """Decide the statistic from the dispersion kind, else the methods, else "single"."""
+    """Decide the statistic from the dispersion kind, else call the value "single".
+
+    A statistic derived from the kind is found where the kind was (a kind from the caption
+    gives a statistic from the caption). The methods' "mean"/"median" names the statistic of
+    values with a spread only (a range: median unless the methods say mean); a bare value is
+    no mean because the methods report means elsewhere.
+    """
     if draft.statistic is not None:
         return draft
+    how = draft.how("dispersion") or "cell"
     if draft.dispersion_kind in ("IQR",):
-        return draft.with_found("statistic", "cell", statistic="median")
+        return draft.with_found("statistic", how, statistic="median")
     if draft.dispersion_kind in ("SD", "SEM", "CI95"):
-        return draft.with_found("statistic", "cell", statistic="mean")
+        return draft.with_found("statistic", how, statistic="mean")
     if draft.dispersion_kind == "range":
-        return draft.with_found("statistic", "cell", statistic=context.statistic or "median")
-    if context.statistic is not None:
-        return draft.with_found("statistic", "methods", statistic=context.statistic)
+        if context.statistic is not None:
+            return draft.with_found("statistic", "methods", statistic=context.statistic)
+        return draft.with_found("statistic", "assumed", statistic="median")
     return draft.with_found("statistic", "assumed", statistic="single")
 
 
-def confidence(draft: Draft) -> float:
-    """A score in 0..1: the weighted mean of how each field was found (FOUND_WEIGHTS).
+#: Flags that say a field was assumed or could not be read, each lowering the confidence.
+CONFIDENCE_PENALTIES: dict[str, float] = {
+    "dispersion_kind_assumed": 0.85,
+    "unknown_unit": 0.9,
+    "no_outcome": 0.7,
+    "range_only": 0.9,
+}
+#: Statistics that need no unit (a count or a percentage is complete without one).
+_UNITLESS = frozenset({"count", "percent"})
 
-    Fields the data point has no need of (no spread printed, no group) do not count against it;
-    a missing n or outcome does.
+
+def confidence(draft: Draft) -> float:
+    """A score in 0..1 that says how much of the record was found rather than assumed.
+
+    The weighted mean of how each field was found (``FOUND_WEIGHTS``: the value's own text
+    1.0 ... assumed 0.45; ``CONFIDENCE_WEIGHTS``), times a factor for each flag in
+    ``CONFIDENCE_PENALTIES``, times 0.85 for a bare value (no spread, no unit, a statistic no
+    label names). A field the data point has no need of (no spread printed, no group; no unit
+    for a count or percentage) does not count; a missing n, outcome or unit does.
     """
     total = 0.0
     weight = 0.0
     for name, w in CONFIDENCE_WEIGHTS.items():
         how = draft.how(name)
+        if how is None and name == "statistic" and draft.statistic is not None:
+            how = "value"  # set by the extractor from the value's own text ("42 (37.5%)")
         if how is None:
-            if name in ("dispersion", "group", "unit"):
+            if name in ("dispersion", "group"):
+                continue
+            if name == "unit" and draft.statistic in _UNITLESS:
                 continue
             how = "missing"
         total += w * FOUND_WEIGHTS.get(how, 0.6)
         weight += w
     score = total / weight if weight else 0.0
-    score -= 0.1 * sum(1 for f in draft.flags if f in ("unknown_unit", "dispersion_kind_assumed"))
+    for flag in draft.flags:
+        score *= CONFIDENCE_PENALTIES.get(flag, 1.0)
+    if (
+        draft.dispersion_value is None
+        and draft.unit is None
+        and draft.how("statistic")
+        in (
+            "assumed",
+            "methods",
+        )
+    ):
+        score *= 0.85
     return round(min(max(score, 0.0), 1.0), 3)
 
 

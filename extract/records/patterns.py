@@ -16,6 +16,19 @@ from extract.nlp.sample_size import find_sample_sizes
 from extract.units import is_known_unit
 
 _MARKS = "*†‡§#¶"
+#: Footnote markers set after a word of a header label: marks, superscript digits and letters.
+_LABEL_MARKS = re.compile(
+    r"(?<=[\w).%])[*†‡§#¶]+"  # "Total†", "(n = 4)*"
+    r"|(?<=[A-Za-z]{3})[\u00b9\u00b2\u00b3\u2070\u2074-\u2079]+(?![\w/])"  # "Total²", not "m²"
+    r"|(?<=\w)[\u1d43-\u1d5b\u02b0-\u02b8]+"  # superscript letters "Placeboᵃ"
+    r"|(?<=\))[a-z](?=\s|$)"  # a marker letter read inline after a bracket "(mg/kg)a"
+    r"|(?:^|\s+)[*†‡§#¶]+(?=\s|$)"  # a mark standing alone
+)
+#: Words that say a value is not stated: never a unit ("Africa, unspecified").
+_NOT_UNITS = frozenset(
+    "unspecified unknown other others none total missing not specified n/a na nos all overall "
+    "combined mixed".split()
+)
 _EMPTY_CELL = re.compile(r"^(?:|[-\u2013\u2014\u2212.]+|n\.?\s?[ad]\.?|na|nd|ns|n/a|–)$", re.I)
 _STAT_SUFFIX = re.compile(
     r"\s*,\s*(?:(?:mean|median|n|no\.)\s*(?:±\s*)?[(\[]?\s*(?:SD|SEM|SE|IQR|range|%|95\s*%\s*CI)?\s*[)\]]?)\s*$",
@@ -24,7 +37,9 @@ _STAT_SUFFIX = re.compile(
 _UNIT_IN_LABEL = re.compile(
     r"^(?P<name>.*?)\s*(?:\((?P<p>[^()]*)\)|\[(?P<b>[^\[\]]*)\]|,\s*(?P<c>[^,]+))\s*$"
 )
-_GROUP_N = re.compile(r"\s*[(\[,;]?\s*\b[nN]\s*=\s*(\d+)\s*[)\]]?\s*$")
+_GROUP_N = re.compile(
+    r"\s*[(\[,;]?\s*\b[nN]\s*=\s*(\d{1,3}(?:[ ,\u2009\u202f]\d{3})+|\d+)\s*[)\]]?\s*$"
+)
 _CENSORED = re.compile(r"^(?:[<>≤≥]|[pP]\s*[=<>])")
 
 
@@ -34,6 +49,35 @@ def clean_cell(text: str) -> str:
     text = text.rstrip(_MARKS + " ")
     text = re.sub(r"(?<=\d)[a-d]$|(?<=\))[a-d]$", "", text)  # superscript letters read inline
     return text.strip(_MARKS + " ")
+
+
+def clean_label(text: str) -> str:
+    """A header or row label without footnote markers: "Status not recorded†" -> "Status not
+    recorded", "Total²" -> "Total", "* Excluded" -> "Excluded"."""
+    return " ".join(_LABEL_MARKS.sub("", " ".join(text.split())).split())
+
+
+def is_plausible_unit(text: str, *, strict: bool = False) -> bool:
+    """Whether a label's bracketed or comma-set tail can be a unit as written.
+
+    A unit the registry reads ("mg/dL", "years") is one; so is a short symbol-like form it does
+    not know ("RFU", "OD450", "×10³/µL"), or a lower-case word in brackets ("(zorbs)") unless
+    ``strict`` (a tail after a comma, "Sex, male"). A capitalised word ("Myanmar", "South"), a
+    list ("min, max") or a word that says nothing is stated ("unspecified") is not.
+    """
+    text = text.strip()
+    if not text or text.lower() in _NOT_UNITS or "," in text or _dispersion_only(text):
+        return False
+    if is_known_unit(text):
+        return True
+    if len(text) > 16 or not re.search(r"[A-Za-zµμ%°]", text):
+        return False
+    # Unknown to the registry: plausible only as an abbreviation or a symbol form, never as a
+    # word of four or more letters in ordinary case.
+    words = re.findall(r"[A-Za-z]+", text)
+    if any(len(w) >= 4 and w[0].isupper() and not w.isupper() for w in words):
+        return False
+    return not strict or not any(len(w) >= 4 and not w.isupper() for w in words)
 
 
 def is_empty_cell(text: str) -> bool:
@@ -66,7 +110,7 @@ def split_label(label: str) -> tuple[str, str | None]:
     "Vehicle (n = 9)" -> ("Vehicle (n = 9)", None): a sample size is not a unit, nor is a
     score band "Severe (20–27)" or an alternative name "Burma (Myanmar)".
     """
-    label = _STAT_SUFFIX.sub("", " ".join(label.split()))
+    label = _STAT_SUFFIX.sub("", clean_label(label))
     match = _UNIT_IN_LABEL.match(label)
     if match is None:
         return label, None
@@ -85,7 +129,7 @@ def split_label(label: str) -> tuple[str, str | None]:
         or (match["c"] is not None and " " in unit)
         or _dispersion_only(unit)
         or not re.search(r"[A-Za-zµμ%°]", unit)
-        or (re.fullmatch(r"[A-Z][a-z]{3,}", unit) and not is_known_unit(unit))
+        or not is_plausible_unit(unit, strict=match["c"] is not None)
     ):
         return label, None
     return match["name"].strip(), unit
@@ -94,18 +138,23 @@ def split_label(label: str) -> tuple[str, str | None]:
 def _dispersion_only(text: str) -> bool:
     return bool(
         re.fullmatch(
-            r"(?:mean|median)?\s*(?:±|\+/-)?\s*(?:SD|SEM|SE|IQR|range|(?:95\s*%\s*)?CI)", text, re.I
+            r"(?:mean|median)?\s*(?:±|\+/-)?\s*(?:SD|SEM|SE|IQR|range|(?:9[059]\s*%\s*)?CI)",
+            text,
+            re.I,
         )
     )
 
 
 def group_and_n(label: str) -> tuple[str, int | None]:
-    """A group header split into its name and the n written in it: "Vehicle (n = 9)" -> ("Vehicle", 9)."""
-    label = " ".join(label.split())
+    """A group header split into its name and the n written in it: "Vehicle (n = 9)" -> ("Vehicle", 9).
+
+    Footnote markers are dropped ("Mixed† (n = 4)" -> ("Mixed", 4)).
+    """
+    label = clean_label(label)
     match = _GROUP_N.search(label)
     if match is None:
         return label, None
-    return label[: match.start()].strip(" ,;("), int(match.group(1))
+    return label[: match.start()].strip(" ,;("), int(re.sub(r"\D", "", match.group(1)))
 
 
 def find_group_n(text: str) -> int | None:
