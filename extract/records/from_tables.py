@@ -147,6 +147,8 @@ def _header_levels(table: Table, col: int) -> _Header:
             total = numeric_level(text)
         elif col > 0 and table.header_rows > 1 and is_stat_level(text) and statistic is None:
             statistic = _level_statistic(text)
+        elif col > 0 and table.header_rows > 1 and is_ratio_label(text) and statistic is None:
+            statistic = "other"  # "HR (95% CI)" over the comparison it reports
         else:
             parts.append(text)
     label = " ".join(parts)
@@ -284,11 +286,15 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
                 # "Model 2" under a section row "Heart failure": the section is the outcome.
                 col_label = f"{col_label}, {body_label}" if col_label else body_label
                 row_label = section
-            elif facts.count_table and facts.by_columns and facts.caption_outcome:
+            elif facts.count_table and facts.caption_outcome:
                 if is_bare_integer(table.cell(r, c).text):
                     # "Number of cases, by region and species": both labels are strata.
-                    col_label = f"{col_label}, {body_label}" if col_label else body_label
-                    row_label = facts.caption_outcome
+                    strata = f"{col_label}, {body_label}" if col_label else body_label
+                    row_label, col_label = (
+                        (facts.caption_outcome, strata)
+                        if facts.by_columns
+                        else (strata, facts.caption_outcome)
+                    )
             draft = _cell_draft(
                 table,
                 parsed,
@@ -353,8 +359,10 @@ def _attach_spread_row(
         spread = parsed.spread.value if parsed.spread is not None else parsed.value
         if kind is None:
             continue
+        if isinstance(spread, tuple) and kind in ("SD", "SEM"):
+            kind = "CI95"
         drafts[index] = above.with_found(
-            "dispersion", "row", dispersion_value=spread, dispersion_kind=_fit_kind(kind, above)
+            "dispersion", "row", dispersion_value=spread, dispersion_kind=kind
         )
 
 
