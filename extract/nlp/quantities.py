@@ -130,9 +130,11 @@ _SD_WORDS = r"S\.?D\.?|standard deviation"
 _SEM_WORDS = r"S\.?E\.?M\.?|S\.?E\.?|standard error(?: of the mean)?"
 _KIND_LABEL = re.compile(rf"\s*\(\s*(?:mean\s*(?:±|\+/-)\s*)?({_SD_WORDS}|{_SEM_WORDS})\s*\)", re.I)
 _BRACKET = {"(": ")", "[": "]"}
+_N_TAIL = r"\s*(?:[;,]\s*n\s*=\s*\d+\s*)?"
 _IN_BRACKET: tuple[tuple[re.Pattern[str], str], ...] = (
-    (re.compile(rf"^\s*(?:{_SD_WORDS})\s*[:=,]?\s*({_NUM})\s*$", re.I), "SD"),
-    (re.compile(rf"^\s*(?:{_SEM_WORDS})\s*[:=,]?\s*({_NUM})\s*$", re.I), "SEM"),
+    # "(SD 1.3)", "(SD = 1.3; n = 10)": a sample size after the spread stays for the n reader.
+    (re.compile(rf"^\s*(?:{_SD_WORDS})\s*[:=,]?\s*({_NUM}){_N_TAIL}$", re.I), "SD"),
+    (re.compile(rf"^\s*(?:{_SEM_WORDS})\s*[:=,]?\s*({_NUM}){_N_TAIL}$", re.I), "SEM"),
     (
         re.compile(
             rf"^\s*(?:95\s*%\s*)?(?:CI|confidence interval)\s*[:=,]?\s*({_NUM}){_RANGE_SEP}({_NUM})\s*$",
@@ -259,6 +261,9 @@ _TIME_UNITS = frozenset(
     " weeks mo month months y yr yrs year years".split()
 )
 _YEAR = re.compile(r"^(?:19[5-9]\d|20\d\d)$")
+_YEAR_BEFORE = re.compile(
+    r"\b(?:in|since|during|from|until|till|by|before|after|between|and|to|of|year|onset)\s*$", re.I
+)
 _CITATION = re.compile(r"^\[\s*\d+(?:\s*[,–-]\s*\d+)*\s*\]$")
 
 
@@ -461,6 +466,12 @@ def _label_kind(label: str) -> str:
     return "SEM"
 
 
+def _leading_number(norm: str, start: int) -> str:
+    """The number written at ``start`` ("2007" of "2007 (9)"), or "" when none."""
+    match = _NUMBER_AT.match(norm, start)
+    return match.group(1) if match else ""
+
+
 def _classify_role(norm: str, draft: _Draft, *, in_citation: bool) -> str:
     before = norm[max(0, draft.start - 60) : draft.start]
     after = norm[draft.end : draft.end + 40]
@@ -504,10 +515,11 @@ def _classify_role(norm: str, draft: _Draft, *, in_citation: bool) -> str:
         return "time"
     if (
         draft.unit is None
-        and not draft.has_spread
         and draft.percent is None
-        and _YEAR.match(norm[draft.start : draft.end].strip())
+        and _YEAR.match(_leading_number(norm, draft.start))
+        and (not draft.has_spread or (draft.spread_kind is None and _YEAR_BEFORE.search(before)))
     ):
+        # "in 2007 (9)": a year and its reference number, not a value and its spread.
         return "year"
     return "measure"
 

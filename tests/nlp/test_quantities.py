@@ -295,3 +295,19 @@ def test_cell_keeps_an_unknown_unit(cell: str, unit: str | None, unknown: bool) 
 def test_cell_statistic_label_is_no_unit() -> None:
     quantity = parse_cell("5 SD")
     assert quantity is not None and quantity.unit is None
+
+
+def test_year_followed_by_a_reference_number_is_a_year() -> None:
+    # "in 2007 (9)": the bracket holds a reference number (numbered citation style, ICMJE
+    # sample references), not a spread; a value with a unit keeps its spread.
+    found = find_quantities("Cases fell from 1,540 with onset in 2007 (9) to 1,320.")
+    assert [q.role for q in found if q.value == 2007] == ["year"]
+    kept = find_quantities("Tail length was 2007 (9) µm in the vehicle group.")
+    assert kept[0].role == "measure" and kept[0].spread is not None
+
+
+def test_labelled_sd_with_n_in_the_same_bracket() -> None:
+    # "mean (SD = x; n = y)" is common practice in reporting (APA style, 7th ed., 6.44).
+    (value, *_) = find_quantities("Zelmar content was 274.1 ppm (SD = 219.7; n = 10).")
+    assert (value.value, value.unit) == (274.1, "ppm")
+    assert value.spread is not None and (value.spread.kind, value.spread.value) == ("SD", 219.7)
