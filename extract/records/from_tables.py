@@ -282,6 +282,9 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
             elif row_stat is not None:
                 # "Mean (SD)" under a section row "Age": the section is the outcome.
                 row_label = section or facts.caption_outcome or body_label
+            elif facts.by_columns and section and parsed.percent is not None:
+                # "Female 214 (70.9%)" under a section row "Sex": a category of that variable.
+                row_label = f"{section}: {body_label}"
             elif facts.by_columns and section and is_model_row(body_label):
                 # "Model 2" under a section row "Heart failure": the section is the outcome.
                 col_label = f"{col_label}, {body_label}" if col_label else body_label
@@ -568,12 +571,9 @@ def _table_statistic(
     if row_stat is not None:
         return draft.with_found("statistic", "row", statistic=row_stat[0])
     statistic = header.statistic
-    if (
-        statistic is None
-        and is_count_level(table.row_label(row))
-        and draft.dispersion_value is None
-    ):
-        statistic = "count"
+    label = table.row_label(row) if facts.by_columns else table.column_header(col)
+    if statistic is None and is_stat_level(label) and draft.dispersion_value is None:
+        statistic = _level_statistic(label)  # a row "Percentage" or "No." of bare values
     if statistic == "count" and not bare:
         statistic = None  # "n" over a mean ± SD is a sample-size label, not a count
     if statistic is not None:

@@ -89,7 +89,8 @@ def test_statistic_rows_take_the_section_as_outcome() -> None:
     assert median.dispersion.value == (18.0, 89.0) and median.unit == "years"
     # A spread-only row is no data point of its own.
     assert not any(p.source.row == 4 for p in proposals)
-    assert cells[(6, 1)].statistic == "count"
+    female = cells[(6, 1)]
+    assert (female.statistic, female.outcome, female.value) == ("count", "Sex: Female", 214.0)
 
 
 def test_iqr_row_attaches_to_the_median_above() -> None:
@@ -194,3 +195,9 @@ def test_label_readers() -> None:
     assert stat_row("Body mass") is None
     assert is_spread_row("Inter-quartile range") and not is_spread_row("Range of motion")
     assert caption_outcome("Table 1. Number of cases* among travellers, 2001") == "Number of cases"
+
+
+def test_row_naming_a_statistic_gives_it_to_bare_values() -> None:
+    grid = [["", "Low (X2)", "High (X4)"], ["Responders", "3", "5"], ["Percentage", "6.7", "11.1"]]
+    cells = _by_cell(first_pass(make_document(tables=(make_table(grid),))))
+    assert cells[(2, 1)].statistic == "percent"
