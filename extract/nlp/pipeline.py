@@ -7,7 +7,7 @@ tokenizer (``winnow.tokenizer.v1``) and these registered components:
 spaCy factory          extractor id              sets
 =====================  ========================  ================================================
 ``sentences_rules``    ``sentences.rules@1``     ``token.is_sent_start``
-``quantities_rules``   ``quantities.rules@1``    ``doc.spans["quantities"]``, ``span._.quantity``
+``quantities_rules``   ``quantities.rules@2``    ``doc.spans["quantities"]``, ``span._.quantity``
 ``sample_size_rules``  ``sample_size.rules@2``   ``doc.spans["sample_sizes"]``, ``span._.sample_size``
 ``context_rules``      ``context.rules@2``       ``doc.spans["context"]``, ``span._.context``
 =====================  ========================  ================================================
@@ -120,7 +120,7 @@ class _RuleComponent:
 
 @register_extractor(
     "quantities.rules",
-    1,
+    2,
     factory="quantities_rules",
     description="values, units, SD/SEM/CI/IQR/range, counts with percent, roles",
 )
@@ -128,7 +128,7 @@ class QuantitiesComponent(_RuleComponent):
     """Finds every number per sentence; ``doc.spans["quantities"]`` labelled by role."""
 
     name = "quantities.rules"
-    version = 1
+    version = 2
 
     def __call__(self, doc: Doc) -> Doc:
         dispersion = doc.user_data.get(DISPERSION_KEY)
