@@ -40,6 +40,17 @@ _UNIT_IN_LABEL = re.compile(
 _GROUP_N = re.compile(
     r"\s*[(\[,;]?\s*\b[nN]\s*=\s*(\d{1,3}(?:[ ,\u2009\u202f]\d{3})+|\d+)\s*[)\]]?\s*$"
 )
+#: One sex's count in a group label: "2F", "6 M", "5 females", "4 men".
+_SEX = r"(?:[FMW]|(?i:females?|males?|women|men))"
+#: A count split by sex closing a group label, alone or after its n: "(2F/6M)", "5 F/4 M",
+#: "(M/F 6/2)", "(n = 8; 2 F)". The counts of a split add up to the group's n.
+_GROUP_SEX_SPLIT = re.compile(
+    r"\s*[(\[,;]?\s*(?:"
+    rf"(?P<a>\d+)\s*(?P<sa>{_SEX})\s*[/,:;]\s*(?P<b>\d+)\s*(?P<sb>{_SEX})"
+    r"|(?P<ka>[FM])\s*/\s*(?P<kb>[FM])\s*[:=]?\s*(?P<c>\d+)\s*/\s*(?P<d>\d+)"
+    rf"|\b[nN]\s*=\s*(?P<n>\d+)\s*[;,]\s*\d+\s*{_SEX}(?:\s*[/,]\s*\d+\s*{_SEX})?"
+    r")\s*[)\]]?\s*$"
+)
 _CENSORED = re.compile(r"^(?:[<>≤≥]|[pP]\s*[=<>])")
 
 
@@ -153,8 +164,33 @@ def group_and_n(label: str) -> tuple[str, int | None]:
     label = clean_label(label)
     match = _GROUP_N.search(label)
     if match is None:
-        return label, None
+        return _group_and_sex_split(label)
     return label[: match.start()].strip(" ,;("), int(re.sub(r"\D", "", match.group(1)))
+
+
+def _sex_of(word: str) -> str:
+    return "F" if word[0] in "FfWw" else "M"
+
+
+def _group_and_sex_split(label: str) -> tuple[str, int | None]:
+    """A group label whose n is written split by sex: "Basal (2F/6M)" -> ("Basal", 8),
+    "Old (M/F 6/2)" -> ("Old", 8), "Young (n = 8; 2 F)" -> ("Young", 8). Two counts of the
+    same sex ("2F/6F") are no split and give no n."""
+    match = _GROUP_SEX_SPLIT.search(label)
+    if match is None:
+        return label, None
+    name = label[: match.start()].strip(" ,;([")
+    if not name:
+        return label, None
+    if match["n"] is not None:
+        return name, int(match["n"])
+    if match["a"] is not None:
+        if _sex_of(match["sa"]) == _sex_of(match["sb"]):
+            return label, None
+        return name, int(match["a"]) + int(match["b"])
+    if match["ka"] == match["kb"]:
+        return label, None
+    return name, int(match["c"]) + int(match["d"])
 
 
 def find_group_n(text: str) -> int | None:

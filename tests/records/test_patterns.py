@@ -81,6 +81,26 @@ def test_group_and_n_from_header() -> None:
     assert group_and_n("Sham") == ("Sham", None)
 
 
+# A group's n written split by sex (females/males) is the sum of its parts (common practice in
+# participant tables: "Group (2F/6M)" reports 8 participants). Labels are invented.
+@pytest.mark.parametrize(
+    ("label", "expected"),
+    [
+        ("Low ZQX (2F/6M)", ("Low ZQX", 8)),
+        ("High ZQX (5 F/4 M)", ("High ZQX", 9)),
+        ("Older adults (M/F 6/2)", ("Older adults", 8)),
+        ("Younger adults (n = 8; 2 F)", ("Younger adults", 8)),
+        ("Arm B (3 females, 4 males)", ("Arm B", 7)),
+        ("Arm C, 2 women/5 men", ("Arm C", 7)),
+        # two counts of one sex are no split; a lone count is no n
+        ("Arm D (2F/6F)", ("Arm D (2F/6F)", None)),
+        ("Dose 2 M", ("Dose 2 M", None)),
+    ],
+)
+def test_group_and_n_sums_a_sex_split(label: str, expected: tuple[str, int | None]) -> None:
+    assert group_and_n(label) == expected
+
+
 @pytest.mark.parametrize(
     ("text", "n"),
     [
