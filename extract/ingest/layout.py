@@ -162,18 +162,29 @@ def split_at_gutter(lines: Sequence[Line], gutter: float) -> list[Line]:
 
 def drop_line_numbers(words: list[RawWord]) -> list[RawWord]:
     """Words without margin line numbers: five or more bare numbers aligned in a column left
-    of (or right of) nearly all other text."""
+    of (or right of) nearly all other text, or three or more there that count up by one."""
     numbers = [w for w in words if _NUMBER.match(w.text)]
     others = sorted(w.x0 for w in words if not _NUMBER.match(w.text))
-    if len(numbers) < 5 or len(others) < 20:
+    if len(numbers) < 3 or len(others) < 20:
         return words
     left = others[len(others) // 50]
     right = sorted(w.x1 for w in words if not _NUMBER.match(w.text))[-(len(others) // 50) - 1]
     margin = [w for w in numbers if w.x1 < left - 2 or w.x0 > right + 2]
-    if len(margin) < 5:
+    if len(margin) < 5 and not _counts_down(margin):
         return words
     drop = {id(w) for w in margin}
     return [w for w in words if id(w) not in drop]
+
+
+def _counts_down(numbers: list[RawWord]) -> bool:
+    """Whether three or more margin numbers count up by one, top-down, in one aligned column:
+    line numbering on a page where a table leaves only a few numbered lines."""
+    if len(numbers) < 3:
+        return False
+    ordered = sorted(numbers, key=lambda w: w.top)
+    aligned = max(w.x1 for w in ordered) - min(w.x1 for w in ordered) <= 3
+    values = [int(w.text) for w in ordered]
+    return aligned and all(b - a == 1 for a, b in zip(values, values[1:], strict=False))
 
 
 def margin_key(line: Line, height: float) -> str | None:
