@@ -10,7 +10,7 @@ Used for tables with horizontal rules only and for unruled tables (the finders a
 * **header rows**: header cells stacked in one column at the font's leading are one wrapped cell;
   stacked further apart they are two header rows. A cell set between two header rows spans both;
   an upper header cell spans the columns under a short rule below it, or else the empty upper
-  cells to its right that have a header below them. A spanning cell's text is repeated in every
+  cells to its right whose lower header starts under it or is centred with it. A spanning cell's text is repeated in every
   grid cell it covers.
 """
 
@@ -238,7 +238,18 @@ def header_grid(
         cell.rows = [r for r, (t, b) in enumerate(extents) if top < b and bottom > t]
         if not cell.rows:
             mid = (cell.box[1] + cell.box[3]) / 2
-            cell.rows = [min(range(len(extents)), key=lambda r: abs(sum(extents[r]) / 2 - mid))]
+            between = [
+                r
+                for r in range(len(extents) - 1)
+                if extents[r][1] < mid < extents[r + 1][0]
+                and not any(o is not cell and set(o.cols) & set(cell.cols) for o in cells)
+            ]
+            # alone in its column and set in the gap between two rows: it spans both
+            cell.rows = (
+                [between[0], between[0] + 1]
+                if between
+                else [min(range(len(extents)), key=lambda r: abs(sum(extents[r]) / 2 - mid))]
+            )
     n_rows = len(extents)
     texts: list[list[str]] = [[""] * n_cols for _ in range(n_rows)]
     boxes: list[list[BBox | None]] = [[None] * n_cols for _ in range(n_rows)]
@@ -247,21 +258,47 @@ def header_grid(
             for c in cell.cols:
                 texts[r][c] = f"{texts[r][c]} {cell.text}".strip()
                 boxes[r][c] = cell.box
-    # an upper cell with no rule under it spans the empty cells to its right over lower headers
     for cell in cells:
-        last = max(cell.rows)
-        if cell.ruled or last >= n_rows - 1 or min(cell.cols) == 0:
-            continue
-        c = max(cell.cols) + 1
-        while (
-            c < n_cols
-            and all(not texts[r][c] for r in cell.rows)
-            and any(texts[r][c] for r in range(last + 1, n_rows))
-        ):
-            for r in cell.rows:
-                texts[r][c], boxes[r][c] = cell.text, cell.box
-            c += 1
+        _span_right(cell, texts, boxes, bounds)
     return [tuple(row) for row in texts], [tuple(row) for row in boxes]
+
+
+def _span_right(
+    cell: _HeaderCell,
+    texts: list[list[str]],
+    boxes: list[list[BBox | None]],
+    bounds: Sequence[tuple[float, float]],
+) -> None:
+    """Spread an upper header cell with no rule under it over the empty cells to its right.
+
+    A column joins the span when its cells in the cell's rows are empty and a lower header row
+    labels it. An upper cell that starts at (or left of) the lower label under its own column
+    is a group label set left: it spans all such columns. Otherwise it is centred over what it spans: a
+    column joins when its lower label starts under the upper cell or the span's centre moves
+    closer to the upper cell's centre with it; a lower label that starts right of the upper
+    cell, off its centre, starts a new heading ("P value" beside "HR (95% CI)").
+    """
+    n_rows, n_cols = len(texts), len(bounds)
+    last = max(cell.rows)
+    if cell.ruled or last >= n_rows - 1 or min(cell.cols) == 0:
+        return
+    x0, _, x1, _ = cell.box
+    centre = (x0 + x1) / 2
+    first = min(cell.cols)
+    own = [boxes[r][first] for r in range(last + 1, n_rows) if boxes[r][first] is not None]
+    flush = bool(own) and x0 <= own[0][0] + 2  # type: ignore[index]
+    c = max(cell.cols) + 1
+    while c < n_cols and all(not texts[r][c] for r in cell.rows):
+        lower = [boxes[r][c] for r in range(last + 1, n_rows) if texts[r][c]]
+        if not lower or lower[0] is None:
+            return
+        before = abs((bounds[first][0] + bounds[c - 1][1]) / 2 - centre)
+        after = abs((bounds[first][0] + bounds[c][1]) / 2 - centre)
+        if not flush and lower[0][0] >= x1 and after >= before:
+            return
+        for r in cell.rows:
+            texts[r][c], boxes[r][c] = cell.text, cell.box
+        c += 1
 
 
 def table_from_text(

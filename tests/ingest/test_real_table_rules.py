@@ -8,9 +8,10 @@ a person gets from the page.
 
 from __future__ import annotations
 
-from layoutmaker import words
+from layoutmaker import row, words
 
 from extract.ingest.layout import drop_line_numbers
+from extract.ingest.table_text import table_from_text
 
 
 def test_three_counted_margin_numbers_are_line_numbers() -> None:
@@ -39,3 +40,59 @@ def test_unordered_margin_numbers_are_kept() -> None:
         page += words(text * 3, 90, 90 + 31 * i)
     page += words("40", 40, 160, align="right") + words("Theta iota kappa " * 3, 90, 160)
     assert {"12", "7", "40"} <= {w.text for w in drop_line_numbers(page)}
+
+
+def _ratio_table() -> list:
+    # an upper label centred over one column only; "P value" beside it on the lower row
+    # (the layout of eLife RP95901 Table 2, read as a person reads it: common practice)
+    out = words("HR (95% CI)", 300, 100, bold=True, align="centre")
+    out += words("Outcome", 60, 115, bold=True)
+    out += words("Drug A vs. placebo group", 300, 115, bold=True, align="centre")
+    out += words("P value", 420, 115, bold=True, align="centre")
+    out += row([("Model 1", 60), ("0.84 (0.74 to 0.95)", 300), ("0.005", 420)], 135)
+    out += row([("Model 2", 60), ("0.83 (0.73 to 0.94)", 300), ("0.002", 420)], 150)
+    return out
+
+
+def test_centred_upper_label_does_not_span_a_new_lower_label() -> None:
+    table = table_from_text(_ratio_table(), (50, 85, 460, 155), 1, style="rules", header_bottom=120)
+    assert table is not None
+    assert table.rows[:2] == (
+        ("", "HR (95% CI)", ""),
+        ("Outcome", "Drug A vs. placebo group", "P value"),
+    )
+
+
+def test_upper_label_centred_over_two_columns_spans_both() -> None:
+    # "Dose" centred over "10 mg" and "30 mg": a group label over both (common practice)
+    out = words("Dose", 350, 100, bold=True, align="centre")
+    out += words("Group", 60, 115, bold=True)
+    out += words("10 mg", 300, 115, bold=True, align="centre")
+    out += words("30 mg", 400, 115, bold=True, align="centre")
+    out += row([("Week 1", 60), ("4.4", 300), ("4.9", 400)], 135)
+    out += row([("Week 2", 60), ("4.6", 300), ("5.2", 400)], 150)
+    table = table_from_text(out, (50, 85, 460, 155), 1, style="rules", header_bottom=120)
+    assert table is not None
+    assert table.rows[0] == ("", "Dose", "Dose")
+
+
+def test_label_between_double_spaced_header_rows_spans_both() -> None:
+    # a double-spaced manuscript: header rows 31 pt apart, "Characteristic" set halfway
+    # between them (eLife RP95901 Table 1)
+    out = words("Characteristic", 60, 115.5, bold=True)
+    out += words("Arm A", 250, 100, bold=True, align="centre")
+    out += words("(n=1 204)", 250, 131, bold=True, align="centre")
+    out += words("Arm B", 380, 100, bold=True, align="centre")
+    out += words("(n=1 198)", 380, 131, bold=True, align="centre")
+    out += row([("Age, years", 60), ("58.9±7.3", 250), ("56.7±8.0", 380)], 165)
+    out += row([("Weight, kg", 60), ("71.2±9.0", 250), ("70.8±9.4", 380)], 196)
+    table = table_from_text(out, (50, 85, 460, 200), 1, style="rules", header_bottom=140)
+    assert table is not None
+    assert table.header_rows == 2
+    assert [r[0] for r in table.rows] == [
+        "Characteristic",
+        "Characteristic",
+        "Age, years",
+        "Weight, kg",
+    ]
+    assert table.rows[1][1:] == ("(n=1 204)", "(n=1 198)")
