@@ -363,8 +363,8 @@ def _is_bold(row: Sequence[RawWord]) -> bool:
 def guessed_header_end(rows: Sequence[Sequence[RawWord]], n_head: int) -> int:
     """How many of the lines above the first body row are header rows, where no rule says.
 
-    The lines above the first row of numbers are the header, except body rows that hold no
-    number: where the header is set in bold, the plain lines under it are body rows (a text
+    The lines above the first row of numbers are the header, except a labelled row of numbers
+    (a totals row set in bold like the header) and body rows that hold no number: where the header is set in bold, the plain lines under it are body rows (a text
     value such as "Reference", a group name); otherwise a lone label set at the left edge of
     the body's labels right above the first row of numbers is a group name.
 
@@ -377,6 +377,13 @@ def guessed_header_end(rows: Sequence[Sequence[RawWord]], n_head: int) -> int:
     """
     if n_head <= 1:
         return n_head
+    # a labelled row of numbers under the header is a body row, bold or not (a totals row);
+    # its label starts at (or left of) the body's labels
+    edge = min((row[0].x0 for row in rows[n_head:]), default=rows[0][0].x0) + 2
+    n_head = next(
+        (i for i in range(1, n_head) if rows[i][0].x0 <= edge and _labelled_numbers(rows[i])),
+        n_head,
+    )
     bold = [_is_bold(row) for row in rows[:n_head]]
     if bold[0] and not all(bold):
         last = max(i for i, b in enumerate(bold) if b)
@@ -389,6 +396,22 @@ def guessed_header_end(rows: Sequence[Sequence[RawWord]], n_head: int) -> int:
     ):
         n_head -= 1
     return n_head
+
+
+_YEAR = re.compile(r"^(19|20)\d\d$")
+
+
+def _labelled_numbers(row: Sequence[RawWord]) -> bool:
+    """Whether a line is a label followed by two or more values that are all numbers and not
+    all years (a row of years under a header is a header level: common practice)."""
+    cells = [cell_text(c) for c in cells_of(row)]
+    values = cells[1:]
+    return (
+        len(values) >= 2
+        and not _NUMERIC_CELL.match(cells[0])
+        and all(_NUMERIC_CELL.match(v) for v in values)
+        and not all(_YEAR.match(v) for v in values)
+    )
 
 
 def _numeric_columns(

@@ -96,3 +96,30 @@ def test_label_between_double_spaced_header_rows_spans_both() -> None:
         "Weight, kg",
     ]
     assert table.rows[1][1:] == ("(n=1 204)", "(n=1 198)")
+
+
+def test_bold_totals_row_under_bold_header_is_body() -> None:
+    # an unruled table whose header and first (totals) row are both bold, as MMWR SS-59(7)
+    # Table 3 sets them: a row of numbers under the header is body (common practice)
+    out = row(
+        [("Region", 60), ("Strain X", 200), ("Strain Y", 280), ("Total", 360)], 100, bold=True
+    )
+    out += row([("All regions", 60), ("464", 200), ("15", 280), ("479", 360)], 112, bold=True)
+    out += row([("North Vale", 70), ("1", 200), ("0", 280), ("1", 360)], 124)
+    out += row([("South Vale", 70), ("7", 200), ("2", 280), ("9", 360)], 136)
+    table = table_from_text(out, (50, 90, 400, 140), 1, style="unruled", header_bottom=None)
+    assert table is not None
+    assert table.header_rows == 1
+    assert table.rows[1] == ("All regions", "464", "15", "479")
+
+
+def test_row_of_years_under_header_stays_header() -> None:
+    # a second header level of years is no body row (common practice)
+    out = row([("Region", 60), ("Cases", 240), ("Cases", 320)], 100, bold=True)
+    out += words("2008", 240, 112, bold=True, align="centre")
+    out += words("2009", 320, 112, bold=True, align="centre")
+    out += row([("North Vale", 60), ("12", 240), ("14", 320)], 124)
+    out += row([("South Vale", 60), ("7", 240), ("9", 320)], 136)
+    table = table_from_text(out, (50, 90, 400, 140), 1, style="unruled", header_bottom=None)
+    assert table is not None
+    assert table.header_rows == 2
