@@ -44,7 +44,13 @@ from extract.ingest.layout import (
 from extract.ingest.sections import caption_text, find_doi
 from extract.ingest.table_find import find_rules_only
 from extract.ingest.table_link import caption_for, footnotes_for, merge_tables
-from extract.ingest.table_place import block_caption, centre_in, plausible_tables, unruled_tables
+from extract.ingest.table_place import (
+    block_caption,
+    centre_in,
+    drop_orphan_continuations,
+    plausible_tables,
+    unruled_tables,
+)
 from extract.ingest.tables import RawTable, find_ruled
 from extract.ingest.words import chars_to_words
 
@@ -188,6 +194,8 @@ def _assemble(path: Path, pages: list[PageData], options: PDFSettings) -> Docume
     previous: PageData | None = None
     seen: set[str] = set()
     for page in pages:
+        if options.tables:
+            drop_orphan_continuations(page, previous)
         gutter = find_gutter(page.lines, page.width)
         page.columns = 2 if gutter is not None else 1
         if gutter is not None:

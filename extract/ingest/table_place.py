@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from dataclasses import replace
 
-from extract.ingest.layout import Line, PageData, RawBlock, drop_line_numbers
+from extract.ingest.layout import Line, PageData, RawBlock, drop_line_numbers, words_to_lines
 from extract.ingest.sections import caption_label
 from extract.ingest.table_find import find_unruled
 from extract.ingest.table_text import cells_of
@@ -49,10 +49,43 @@ def plausible_tables(tables: list[RawTable], lines: list[Line], height: float) -
         ]
         if distances and not min(distances)[1]:
             continue  # a figure's caption is the nearest: a chart or a drawing
-        near = any(is_table for _, is_table in distances)
-        if near or (top < 0.3 * height and len(table.rows[0]) >= 3):
+        if any(is_table for _, is_table in distances):
             kept.append(table)
+        elif top < 0.3 * height and len(table.rows[0]) >= 3:
+            # no caption, at the top of the page: only a continuation (checked against the
+            # page before by drop_orphan_continuations)
+            kept.append(replace(table, continued=True))
     return kept
+
+
+def ends_in_table(page: PageData | None) -> bool:
+    """Whether the page's last content is a table (no text line below its lowest table)."""
+    if page is None or not page.tables:
+        return False
+    last = max(page.tables, key=lambda t: t.bbox[3])
+    return not any(ln.top > last.bbox[3] + 1 for ln in page.lines)
+
+
+def drop_orphan_continuations(page: PageData, previous: PageData | None) -> None:
+    """Drop caption-less page-top tables when the page before does not end in a table.
+
+    Such a grid (a figure's panel grid, a key drawn in boxes) continues nothing; its words go
+    back into the page's lines.
+    """
+    if ends_in_table(previous):
+        return
+    orphans = [t for t in page.tables if t.continued]
+    if not orphans:
+        return
+    page.tables = [t for t in page.tables if not t.continued]
+    back = [
+        w
+        for w in drop_line_numbers(page.words)
+        if any(centre_in(w, t.bbox) for t in orphans)
+        and not any(centre_in(w, t.bbox) for t in page.tables)
+    ]
+    lines = page.lines + words_to_lines(back, page.number)
+    page.lines = sorted(lines, key=lambda ln: (round(ln.top), ln.x0))
 
 
 def centre_in(word: RawWord, box: BBox, pad: float = 1.0) -> bool:
@@ -177,11 +210,9 @@ def _continuation(
     The table before must run to the bottom of its page (no text below it); the rows at the top
     of this page must have as many columns, within its left and right edges.
     """
-    if previous is None or not previous.tables or not page.lines:
+    if previous is None or not ends_in_table(previous) or not page.lines:
         return None
     last = max(previous.tables, key=lambda t: t.bbox[3])
-    if any(ln.top > last.bbox[3] + 1 for ln in previous.lines):
-        return None
     first = min(ln.top for ln in page.lines)
     if any(b.bbox[1] <= first + 1 and block_caption(b) for b in blocks):
         return None  # a caption of its own ("Table 2 (continued)") is read as any caption

@@ -10,8 +10,10 @@ from __future__ import annotations
 
 from layoutmaker import row, words
 
-from extract.ingest.layout import drop_line_numbers
+from extract.ingest.layout import PageData, drop_line_numbers, words_to_lines
+from extract.ingest.table_place import centre_in, drop_orphan_continuations
 from extract.ingest.table_text import table_from_text
+from extract.ingest.tables import RawTable
 
 
 def test_three_counted_margin_numbers_are_line_numbers() -> None:
@@ -123,3 +125,36 @@ def test_row_of_years_under_header_stays_header() -> None:
     table = table_from_text(out, (50, 90, 400, 140), 1, style="unruled", header_bottom=None)
     assert table is not None
     assert table.header_rows == 2
+
+
+def _page(number: int, lines_words: list, tables: list[RawTable]) -> PageData:
+    free = [w for w in lines_words if not any(centre_in(w, t.bbox) for t in tables)]
+    return PageData(number, 612, 792, lines_words, words_to_lines(free, number), list(tables), True)
+
+
+def _grid(page: int, top: float) -> tuple[list, RawTable]:
+    out = row([("A1", 60), ("B1", 200), ("C1", 300)], top + 10)
+    out += row([("A2", 60), ("B2", 200), ("C2", 300)], top + 22)
+    rows = (("A1", "B1", "C1"), ("A2", "B2", "C2"))
+    boxes = tuple(tuple(None for _ in r) for r in rows)
+    return out, RawTable(page, (55, top, 320, top + 25), rows, boxes, 1, "ruled", continued=True)
+
+
+def test_caption_less_page_top_grid_needs_a_table_ending_the_page_before() -> None:
+    # a figure page with a small grid at its top (eLife 13833 p. 34, 37); the page before ends
+    # in running text, so the grid continues nothing and its words go back to the text
+    before = _page(1, words("The last paragraph of the page before ends here.", 60, 700), [])
+    out, grid = _grid(2, 80)
+    page = _page(2, out + words("Figure 5. Panel legends of the odour task.", 60, 300), [grid])
+    drop_orphan_continuations(page, before)
+    assert page.tables == []
+    assert {"A1", "C2"} <= {w.text for ln in page.lines for w in ln.words}
+
+
+def test_caption_less_page_top_grid_after_a_page_ending_in_a_table_is_kept() -> None:
+    prev_words, prev_table = _grid(1, 650)
+    before = _page(1, prev_words, [prev_table])
+    out, grid = _grid(2, 80)
+    page = _page(2, out, [grid])
+    drop_orphan_continuations(page, before)
+    assert page.tables == [grid]
