@@ -150,7 +150,11 @@ _NOT_STRAIN = frozenset(
     "the a an all both each every these those this that some most many several other remaining"
     " surviving treated untreated control controls vehicle sham placebo saline naive in of for"
     " with from to at on by and or after before during when where while no one two three four"
-    " five six seven eight nine ten eleven twelve animals subjects groups group".split()
+    " five six seven eight nine ten eleven twelve animals subjects groups group"
+    # heading words that run into a subject when a heading is read with its paragraph
+    # ("Methods Study participants", "Population Patients")
+    " methods method materials study studies population participants design setting results"
+    " characteristics procedures protocol recruitment eligibility".split()
 )
 _SUBJECT_AGE_AFTER = re.compile(
     r"^\s*,?\s*(?:aged\s+\d+(?:\s*(?:–|-|to)\s*\d+)?\s*(?:days?|weeks?|months?|years?)(?:\s+old)?|"

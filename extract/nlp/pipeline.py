@@ -9,7 +9,7 @@ spaCy factory          extractor id              sets
 ``sentences_rules``    ``sentences.rules@1``     ``token.is_sent_start``
 ``quantities_rules``   ``quantities.rules@2``    ``doc.spans["quantities"]``, ``span._.quantity``
 ``sample_size_rules``  ``sample_size.rules@2``   ``doc.spans["sample_sizes"]``, ``span._.sample_size``
-``context_rules``      ``context.rules@2``       ``doc.spans["context"]``, ``span._.context``
+``context_rules``      ``context.rules@3``       ``doc.spans["context"]``, ``span._.context``
 =====================  ========================  ================================================
 
 Span labels are the quantity's role, the sample size's scope and the context kind. The pipeline
@@ -172,7 +172,7 @@ class SampleSizeComponent(_RuleComponent):
 
 @register_extractor(
     "context.rules",
-    2,
+    3,
     factory="context_rules",
     description="time point, method, subject, intervention, group; outcome of each measure",
 )
@@ -183,7 +183,7 @@ class ContextComponent(_RuleComponent):
     """
 
     name = "context.rules"
-    version = 2
+    version = 3
 
     def __call__(self, doc: Doc) -> Doc:
         spans = []

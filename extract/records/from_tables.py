@@ -13,6 +13,7 @@ from collections.abc import Iterator
 from dataclasses import dataclass, replace
 
 from extract.ingest.document import Document, Table
+from extract.nlp.context import find_context
 from extract.nlp.quantities import Quantity, find_dispersion_statement
 from extract.records.draft import Draft
 from extract.records.patterns import (
@@ -43,7 +44,7 @@ from extract.records.table_labels import (
 from extract.registry import register_extractor
 
 #: The extractor that reads table cells.
-EXTRACTOR = "tables.cells@3"
+EXTRACTOR = "tables.cells@4"
 
 _GROUP_WORDS = re.compile(
     r"\b(?:vehicle|control|controls|sham|placebo|saline|naive|naïve|untreated|treated|treatment|"
@@ -193,6 +194,7 @@ class _TableFacts:
     median_table: bool
     count_table: bool
     caption_outcome: str | None
+    method: str | None = None
 
 
 def _facts(table: Table) -> _TableFacts:
@@ -211,11 +213,13 @@ def _facts(table: Table) -> _TableFacts:
         median_table=bool(_MEDIAN.search(texts)) and not _MEAN.search(texts),
         count_table=is_count_caption(table.caption),
         caption_outcome=caption_outcome(table.caption),
+        # the caption or footnotes of this table tie a method to all of its values
+        method=next((m.value for m in find_context(texts) if m.kind == "method"), None),
     )
 
 
 @register_extractor(
-    "tables.cells", 3, factory=None, description="data cells of tables, with headers, n and spread"
+    "tables.cells", 4, factory=None, description="data cells of tables, with headers, n and spread"
 )
 def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> list[Draft]:
     """One draft per data cell of ``table``, in row-major order.
@@ -332,6 +336,8 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
                 n_from_col=_n_from(table, n_cols_idx, r, by_rows=False),
                 time_point=time_point or facts.time_point,
             )
+            if facts.method is not None:
+                draft = draft.with_found("method", "caption", method=facts.method)
             at[(r, c)] = len(drafts)
             drafts.append(draft)
     return drafts

@@ -76,6 +76,12 @@ class ArticleContext:
         total_n: the number randomised, allocated or enrolled, when stated.
         dose_groups: group names that state a dose ("BDC 20 mg/kg"), as the article writes them.
         abbreviations: short form -> long form, as the article defines them.
+        method: unused by linking (kept for callers): a method is tied to an outcome through
+            ``method_statements``.
+        time_point: the one sampling time the methods state for the whole study, if only one.
+        method_statements: (methods sentence, method it names), to tie a method to the outcomes
+            its sentence names.
+        time_statements: (methods sentence, the one time point it names), likewise.
     """
 
     article: str
@@ -91,6 +97,8 @@ class ArticleContext:
     total_n: int | None = None
     dose_groups: tuple[str, ...] = ()
     abbreviations: dict[str, str] = field(default_factory=dict)
+    method_statements: tuple[tuple[str, str], ...] = ()
+    time_statements: tuple[tuple[str, str], ...] = ()
 
 
 def article_id(document: Document) -> str:
@@ -107,7 +115,19 @@ def read_context(document: Document, *, subject: str | None = None) -> ArticleCo
     methods = " ".join(b.text for b in document.blocks if b.section == "methods")
     everything = " ".join(b.text for b in document.blocks if b.section != "references")
     kind = find_dispersion_statement(methods) or find_dispersion_statement(everything)
-    mentions = find_context(methods) if methods else []
+    # Context is read from the methods' own sentences: headings ("Study participants") and the
+    # captions and footnotes of tables placed in the section say nothing of the study's context.
+    sentences = [
+        sentence
+        for block in document.blocks
+        if block.section == "methods" and block.kind == "paragraph"
+        for sentence in _sentences(block.text)
+    ]
+    by_sentence = [(sentence, find_context(sentence)) for sentence in sentences]
+    mentions = [m for _, found in by_sentence for m in found]
+    # The study's subjects are those the methods say were studied ("thirty patients were
+    # included"); a subject word in other sentences ("RNA from blood cells") is no description.
+    studied = [m for sentence, found in by_sentence if _STUDIED.search(sentence) for m in found]
     n_per_group = find_group_n(methods)
     n_from = "methods"
     if n_per_group is None and not any(
@@ -128,14 +148,38 @@ def read_context(document: Document, *, subject: str | None = None) -> ArticleCo
         group_n=group_n,
         dispersion_kind=kind,
         statistic=statistic,
-        subject=subject or _methods_subject(mentions),
+        subject=subject or _methods_subject(studied) or _methods_subject(mentions),
         method=next((m.value for m in mentions if m.kind == "method"), None),
-        time_point=_methods_time_point(mentions),
+        time_point=_study_time_point(by_sentence),
         n_per_group_from=n_from,
         total_n=_total_n(everything),
         dose_groups=_dose_groups(document, group_n) if _DOSE_RANK.search(everything) else (),
         abbreviations=_abbreviations(document),
+        method_statements=tuple(
+            (sentence, m.value)
+            for sentence, found in by_sentence
+            for m in found
+            if m.kind == "method"
+        ),
+        time_statements=tuple(
+            (sentence, times[0])
+            for sentence, found in by_sentence
+            if len(times := sorted(set(_sampling_times(found)))) == 1
+        ),
     )
+
+
+#: A methods sentence that says who or what was studied.
+_STUDIED = re.compile(
+    r"\b(?:included|enrolled|recruited|randomi[sz]ed|allocated|assigned|studied|housed|used|"
+    r"purchased|screened|participated|grown|cultured|seeded|bred|kept)\b",
+    re.I,
+)
+
+
+def _sentences(text: str) -> list[str]:
+    """A paragraph cut into sentences (a run-in heading "Animals." is a sentence of its own)."""
+    return [s for s in re.split(r"(?<=[.;])\s+(?=[A-Z(\[])", text) if s.strip()]
 
 
 def _one_per_group_n(document: Document) -> int | None:
@@ -243,28 +287,61 @@ def _abbreviations(document: Document) -> dict[str, str]:
     return found
 
 
+def is_generic_subject(subject: str | None) -> bool:
+    """A subject word that names no species, strain, sex, age or condition ("subjects",
+    "Participants"): it tells a curator nothing and is left empty."""
+    return subject is not None and subject.lower().rstrip(".") in _GENERIC_SUBJECTS
+
+
 def _methods_subject(mentions: list[ContextMention]) -> str | None:
     """The study's subjects as the methods first describe them: the most specific of the first
-    mentions ("male 8-week-old mice" rather than a heading's "Animals")."""
+    mentions ("male 8-week-old mice" rather than a run-in "Animals"), the first of them when
+    several are specific; none when they all are generic words ("subjects")."""
     subjects = [m for m in mentions if m.kind == "subject"][:3]
     if not subjects:
         return None
-    return max(
-        subjects,
-        key=lambda m: (m.value.lower() not in _GENERIC_SUBJECTS, len(m.value.split()), -m.start),
-    ).value
+    best = next((m.value for m in subjects if not is_generic_subject(m.value)), subjects[0].value)
+    return None if is_generic_subject(best) else best
 
 
-def _methods_time_point(mentions: list[ContextMention]) -> str | None:
-    """When the methods say the outcomes were taken ("samples taken at week 6", "at 48 h");
-    durations ("for 12 weeks", "10 min") are not time points of the data."""
-    for mention in mentions:
-        if mention.kind == "time_point" and (
+def _sampling_times(mentions: list[ContextMention]) -> list[str]:
+    """When a methods sentence says the outcomes were taken ("samples taken at week 6", "at
+    48 h"); durations ("for 12 weeks", "10 min") are not time points of the data."""
+    return [
+        mention.value
+        for mention in mentions
+        if mention.kind == "time_point"
+        and (
             mention.text.lower().startswith("at ")
             or re.fullmatch(r"(?:week|day|month|hour|visit) \d+", mention.value)
-        ):
-            return mention.value
-    return None
+        )
+    ]
+
+
+def _study_time_point(by_sentence: list[tuple[str, list[ContextMention]]]) -> str | None:
+    """The study's one sampling time: the methods state exactly one ("samples taken at week
+    6"); two or more ("at 30 min ... at 120 min") tie a time to an outcome only through the
+    sentence that names it (``time_statements``)."""
+    times = {t for _, found in by_sentence for t in _sampling_times(found)}
+    return times.pop() if len(times) == 1 else None
+
+
+def _names_outcome(sentence: str, outcome: str) -> bool:
+    """Whether a methods sentence names the outcome ("Plasma glucose ... was measured using
+    ..." names "plasma glucose"; it does not name "weight")."""
+    words = re.findall(r"[\w-]+", outcome.lower())
+    if not words or len("".join(words)) < 3:
+        return False
+    phrase = r"\W+".join(re.escape(w) for w in words)
+    return re.search(rf"(?<![\w-]){phrase}(?:e?s)?(?![\w-])", sentence.lower()) is not None
+
+
+def _tied(statements: tuple[tuple[str, str], ...], outcome: str | None) -> str | None:
+    """The one value the methods sentences naming ``outcome`` give, or None (none or several)."""
+    if not outcome:
+        return None
+    values = {value for sentence, value in statements if _names_outcome(sentence, outcome)}
+    return values.pop() if len(values) == 1 else None
 
 
 def _stated_group_sizes(document: Document, methods: str) -> dict[str, int]:
@@ -445,6 +522,8 @@ CONFIDENCE_PENALTIES: dict[str, float] = {
     "unknown_unit": 0.9,
     "no_outcome": 0.7,
     "range_only": 0.9,
+    "method_from_methods": 0.97,
+    "time_point_from_methods": 0.95,
 }
 #: Statistics that need no unit (a count or a percentage is complete without one).
 _UNITLESS = frozenset({"count", "percent"})
@@ -489,6 +568,29 @@ def confidence(draft: Draft) -> float:
     return round(min(max(score, 0.0), 1.0), 3)
 
 
+def link_methods_context(draft: Draft, context: ArticleContext) -> Draft:
+    """Give a draft the method and time point the methods tie to it (flagged ``*_from_methods``).
+
+    A method comes only from a methods sentence that names the draft's outcome ("Plasma glucose
+    was measured using an automated analyser"), never to every value of the article. A time
+    point comes from such a sentence, else from the one sampling time the methods state for the
+    whole study; a time-to-event value ("median 6 weeks") takes none.
+    """
+    if draft.method is None:
+        method = _tied(context.method_statements, draft.outcome)
+        if method is not None:
+            draft = draft.with_found("method", "methods", method=method).with_flag(
+                "method_from_methods"
+            )
+    if draft.time_point is None and not _TIME_VALUED.fullmatch(draft.unit or ""):
+        time = _tied(context.time_statements, draft.outcome) or context.time_point
+        if time is not None:
+            draft = draft.with_found("time_point", "methods", time_point=time).with_flag(
+                "time_point_from_methods"
+            )
+    return draft
+
+
 def finish(draft: Draft, context: ArticleContext) -> Proposal:
     """Link one draft and make it a Proposal (SD derived, unit normalised, confidence, id)."""
     draft = link_group(draft, context)
@@ -507,15 +609,9 @@ def finish(draft: Draft, context: ArticleContext) -> Proposal:
         else None
     )
     sd = derive_sd(dispersion, draft.n)
-    if (
-        draft.time_point is None
-        and context.time_point is not None
-        and not _TIME_VALUED.fullmatch(draft.unit or "")
-    ):
-        # A time-to-event value ("median 6 weeks") has no time point of its own.
-        draft = draft.with_found("time_point", "methods", time_point=context.time_point).with_flag(
-            "time_point_from_methods"
-        )
+    draft = link_methods_context(draft, context)
+    subject = draft.subject if not is_generic_subject(draft.subject) else None
+    subject = subject or context.subject
     intervention = draft.intervention
     if intervention is None and draft.group and _DOSE.search(draft.group):
         intervention = draft.group
@@ -535,8 +631,8 @@ def finish(draft: Draft, context: ArticleContext) -> Proposal:
         sd=round(sd, 6) if sd is not None else None,
         n=draft.n,
         time_point=draft.time_point,
-        method=draft.method or context.method,
-        subject=draft.subject or context.subject,
+        method=draft.method,
+        subject=None if is_generic_subject(subject) else subject,
         intervention=intervention,
         source=draft.source,
         extractor=draft.extractor,

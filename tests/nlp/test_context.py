@@ -148,6 +148,10 @@ def test_intervention_keeps_its_dose() -> None:
         ("Animals. Male Ashfield Hooded rats were housed in pairs.", ["Male Ashfield Hooded rats"]),
         ("Male Tallow-Creek (TC) mice were used.", ["Male Tallow-Creek (TC) mice"]),
         ("Control mice were given vehicle.", ["mice"]),
+        # A heading read with its paragraph is no strain name (common practice: a subject is a
+        # species/strain/sex/age/condition phrase, never a section heading).
+        ("Methods Study participants were screened.", ["participants"]),
+        ("Population Patients aged 40 years were eligible.", ["Patients aged 40 years"]),
     ],
 )
 def test_subject_keeps_strain_and_sex(text: str, subjects: list[str]) -> None:

@@ -131,7 +131,7 @@ def _draft(**changes: object) -> Draft:
             col=None,
             quote="98.2 ± 4.5 gf (SD), n = 9",
         ),
-        extractor="text.sentences@3",
+        extractor="text.sentences@4",
         location=(0, 0),
     )
     for name in ("value", "outcome", "group", "unit", "dispersion", "n"):

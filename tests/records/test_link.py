@@ -93,13 +93,16 @@ def test_methods_give_time_point_subject_and_method() -> None:
         [
             ("methods", "Animals. Male Tallow-Creek mice were housed in pairs."),
             ("methods", "Samples taken at week 6 were read on a Corvane 400 analyser."),
+            ("methods", "Liver mass was measured by a Quellon balance method."),
             ("results", "Liver mass was 1.24 ± 0.11 g in the vehicle group."),
         ]
     )
     (proposal,) = first_pass(document)
     assert proposal.time_point == "week 6" and "time_point_from_methods" in proposal.flags
-    assert proposal.subject is not None and "mice" in proposal.subject
-    assert proposal.method == "Corvane 400 analyser"
+    assert proposal.subject == "Male Tallow-Creek mice"
+    # The method of the sentence that names the outcome, not the first method of the methods.
+    assert proposal.method == "Quellon balance method"
+    assert "method_from_methods" in proposal.flags
 
 
 def test_time_to_event_value_gets_no_methods_time_point() -> None:
