@@ -128,6 +128,15 @@ def read_context(document: Document, *, subject: str | None = None) -> ArticleCo
     # The study's subjects are those the methods say were studied ("thirty patients were
     # included"); a subject word in other sentences ("RNA from blood cells") is no description.
     studied = [m for sentence, found in by_sentence if _STUDIED.search(sentence) for m in found]
+    # A subject given as an example ("family members such as a spouse or children") describes
+    # a category, not the study's subjects.
+    mentions = [
+        m
+        for sentence, found in by_sentence
+        for m in found
+        if not (m.kind == "subject" and _EXAMPLE.search(sentence[: m.start]))
+    ]
+    studied = [m for m in studied if m in mentions]
     n_per_group = find_group_n(methods)
     n_from = "methods"
     if n_per_group is None and not any(
@@ -175,6 +184,10 @@ _STUDIED = re.compile(
     r"purchased|screened|participated|grown|cultured|seeded|bred|kept)\b",
     re.I,
 )
+
+
+#: Words that introduce examples of a category.
+_EXAMPLE = re.compile(r"\b(?:such as|e\.g\.|for example|for instance|including|like)\s", re.I)
 
 
 def _sentences(text: str) -> list[str]:

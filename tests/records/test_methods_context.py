@@ -122,3 +122,16 @@ def test_a_table_footnote_ties_its_method_to_the_table_values() -> None:
         tables=(table,),
     )
     assert {p.method for p in first_pass(document)} == {"ELISA"}
+
+
+def test_a_subject_given_as_an_example_is_no_study_subject() -> None:
+    document = make_document(
+        [
+            (
+                "methods",
+                "Included in the visitor category are relatives such as a spouse or children.",
+            )
+        ],
+        tables=(make_table(GRID),),
+    )
+    assert {p.subject for p in first_pass(document)} == {None}
