@@ -158,7 +158,9 @@ def _read_page(pdf: pdfium.PdfDocument, index: int, options: PDFSettings) -> Pag
     finally:
         page.close()
     if tables:
-        tables = plausible_tables(tables, words_to_lines(words, index + 1), height)
+        tables = plausible_tables(
+            tables, words_to_lines(drop_line_numbers(words), index + 1), height
+        )
     free = [w for w in words if not any(centre_in(w, t.bbox) for t in tables)]
     lines = words_to_lines(drop_line_numbers(free), index + 1)
     return PageData(index + 1, width, height, words, lines, tables, bool(chars))

@@ -14,7 +14,7 @@ import re
 from extract.ingest.headings import clean_heading, heading_to_section
 
 CAPTION = re.compile(
-    r"^(?P<kind>Table|Fig\.?|Figure)\s+(?P<num>S?\d+[A-Za-z]?)(?P<cont>\s*\((continued|cont\.?)\))?"
+    r"^(?P<kind>Tableau|Tabela|Tabla|Table|Figura|Figure|Fig\.?)\s+(?P<num>S?\d+[A-Za-z]?)(?P<cont>\s*\((continued|cont\.?)\))?"
     r"\s*[.:|\-–—]?\s*",
     re.IGNORECASE,
 )
@@ -47,6 +47,8 @@ def caption_label(text: str, *, bold: bool = True) -> tuple[str, bool] | None:
 
     >>> caption_label("Table 2 (continued)")
     ('Table 2', True)
+    >>> caption_label("Tabela 1. Características")  # Portuguese, Spanish, French labels too
+    ('Table 1', False)
     >>> caption_label("Table 1 summarises the data", bold=False) is None
     True
     """
@@ -58,7 +60,7 @@ def caption_label(text: str, *, bold: bool = True) -> tuple[str, bool] | None:
         if rest and rest[0] not in ".:|-–—":
             return None
     kind = match.group("kind").lower()
-    name = "Table" if kind.startswith("table") else "Figure"
+    name = "Table" if kind.startswith("tab") else "Figure"
     return f"{name} {match.group('num')}", bool(match.group("cont"))
 
 

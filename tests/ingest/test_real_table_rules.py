@@ -8,9 +8,16 @@ a person gets from the page.
 
 from __future__ import annotations
 
+from pathlib import Path
+
+import pytest
 from layoutmaker import row, words
 
+from extract.ingest import read_document
+from extract.ingest.document import Document, Table
+from extract.ingest.jats import read_jats
 from extract.ingest.layout import PageData, drop_line_numbers, words_to_lines
+from extract.ingest.sections import caption_label
 from extract.ingest.table_place import centre_in, drop_orphan_continuations
 from extract.ingest.table_text import table_from_text
 from extract.ingest.tables import RawTable
@@ -158,3 +165,120 @@ def test_caption_less_page_top_grid_after_a_page_ending_in_a_table_is_kept() -> 
     page = _page(2, out, [grid])
     drop_orphan_continuations(page, before)
     assert page.tables == [grid]
+
+
+JATS_TWO_LEVEL = """<?xml version="1.0" encoding="UTF-8"?>
+<article article-type="research-article" dtd-version="1.3">
+  <front><article-meta>
+    <article-id pub-id-type="doi">10.5555/winnow.case.twolevel</article-id>
+    <title-group><article-title>Two-level header</article-title></title-group>
+  </article-meta></front>
+  <body><sec sec-type="results"><title>Results</title>
+    <table-wrap id="t1"><label>Table 1</label><caption><title>Patients taking zolmarin.</title>
+    </caption><table>
+      <thead>
+        <tr><td colspan="1" rowspan="1">Medication</td><td colspan="3">Arm A</td>
+            <td colspan="3">Arm B</td></tr>
+        <tr><td/><td>n</td><td>Percent</td><td>Change</td>
+            <td>n</td><td>Percent</td><td>Change</td></tr>
+      </thead>
+      <tbody>
+        <tr><td>Baseline</td><td>189</td><td>62.6%</td><td>-</td>
+            <td>220</td><td>72.9%</td><td>-</td></tr>
+      </tbody>
+    </table></table-wrap>
+  </sec></body>
+</article>
+"""
+
+
+def test_jats_two_level_header_keeps_lower_labels_under_their_groups(tmp_path: Path) -> None:
+    # colspan groups over a lower row that opens with an empty cell (the thead shape of PLOS
+    # Medicine 10.1371/journal.pmed.1001518 Table 5; JATS 1.3 / XHTML table model: a cell
+    # with colspan="3" covers three grid columns, an empty <td/> still takes one)
+    path = tmp_path / "two-level.xml"
+    path.write_text(JATS_TWO_LEVEL, encoding="utf-8")
+    (table,) = read_jats(path).tables
+    assert table.header_rows == 2
+    assert table.grid()[0] == ["Medication"] + ["Arm A"] * 3 + ["Arm B"] * 3
+    assert table.grid()[1] == ["", "n", "Percent", "Change", "n", "Percent", "Change"]
+    assert table.column_header(4) == "Arm B / n"
+    assert table.grid()[2][4] == "220"
+
+
+# --- the real corpus (structure only) ----------------------------------------------------------
+# Licences (SOURCES.md in the corpus folder): mmwr-ss5907 public domain (US government);
+# elife-rp95901 and elife-13833 CC BY 4.0; pmed-1001518 PLOS Medicine, CC BY.
+
+
+@pytest.fixture(scope="module")
+def real_pdfs(corpus_dir: Path) -> dict[str, Document]:
+    return {
+        name: read_document(corpus_dir / f"{name}.pdf")
+        for name in ("mmwr-ss5907", "elife-rp95901", "elife-13833")
+    }
+
+
+def _labelled(document: Document, label: str) -> Table:
+    (table,) = [t for t in document.tables if t.label == label]
+    return table
+
+
+@pytest.mark.corpus
+def test_corpus_totals_row_is_body(real_pdfs: dict[str, Document]) -> None:
+    table = _labelled(real_pdfs["mmwr-ss5907"], "Table 3")
+    assert table.header_rows == 1
+    assert table.row_label(1) == "Africa"
+
+
+@pytest.mark.corpus
+def test_corpus_numbered_caption_and_spans(real_pdfs: dict[str, Document]) -> None:
+    document = real_pdfs["elife-rp95901"]
+    first = _labelled(document, "Table 1")
+    assert first.caption.startswith("Baseline characteristics")
+    assert first.pages == (29, 30)
+    assert first.row_label(0) == first.row_label(1) == "Characteristic"
+    second = _labelled(document, "Table 2")
+    assert second.header_rows == 2
+    assert second.cell(0, 2).text == ""  # "HR (95% CI)" is not over "P value"
+    assert second.cell(1, 2).text == "P value"
+
+
+@pytest.mark.corpus
+def test_corpus_figure_pages_hold_no_tables(real_pdfs: dict[str, Document]) -> None:
+    tables = real_pdfs["elife-13833"].tables
+    assert [t.label for t in tables] == ["Table 1"]
+    assert not {34, 37} & {p for t in tables for p in t.pages}
+
+
+@pytest.mark.corpus
+def test_corpus_jats_header_as_the_xml_writes_it(corpus_dir: Path) -> None:
+    # the XML's own second header row under "Counselling + Usual Care" reads "Percent",
+    # "Percent", "Change from Baseline": kept as written, each under its own column
+    table = _labelled(read_jats(corpus_dir / "pmed-1001518.xml"), "Table 5")
+    assert table.n_cols == 13 and table.header_rows == 2
+    assert table.grid()[1][1:4] == ["n", "Percent", "Change from Baseline"]
+    assert table.grid()[0][4:7] == ["Counselling + Usual Care"] * 3
+
+
+@pytest.mark.parametrize(
+    ("text", "label"),
+    [
+        ("Tabela 2. Exames por região", "Table 2"),  # Portuguese
+        ("Tabla 3: Pacientes", "Table 3"),  # Spanish
+        ("Tableau 1 - Patients", "Table 1"),  # French
+        ("Figura 4. Curvas", "Figure 4"),
+    ],
+)
+def test_caption_labels_in_romance_languages(text: str, label: str) -> None:
+    # the words journals in Portuguese, Spanish and French print for "Table"/"Figure"
+    # (Cadernos Saúde Coletiva sets "Tabela 1."; the others from memory)
+    assert caption_label(text) == (label, False)
+
+
+@pytest.mark.corpus
+def test_corpus_portuguese_tables_have_captions(corpus_dir: Path) -> None:
+    # csc-31030043 (Cadernos Saúde Coletiva, CC BY): "Tabela 1." and "Tabela 2." captions
+    tables = read_document(corpus_dir / "csc-31030043.pdf").tables
+    assert [t.label for t in tables] == ["Table 1", "Table 2"]
+    assert all(t.caption for t in tables)
