@@ -26,6 +26,11 @@ from extract.records.patterns import (
     split_label,
 )
 from extract.records.proposal import Source
+from extract.records.spread_columns import (
+    attach_spread_columns,
+    spread_columns,
+    spread_level,
+)
 from extract.records.table_labels import (
     caption_outcome,
     is_bare_integer,
@@ -44,7 +49,7 @@ from extract.records.table_labels import (
 from extract.registry import register_extractor
 
 #: The extractor that reads table cells.
-EXTRACTOR = "tables.cells@4"
+EXTRACTOR = "tables.cells@5"
 
 _GROUP_WORDS = re.compile(
     r"\b(?:vehicle|control|controls|sham|placebo|saline|naive|naïve|untreated|treated|treatment|"
@@ -219,7 +224,7 @@ def _facts(table: Table) -> _TableFacts:
 
 
 @register_extractor(
-    "tables.cells", 4, factory=None, description="data cells of tables, with headers, n and spread"
+    "tables.cells", 5, factory=None, description="data cells of tables, with headers, n and spread"
 )
 def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> list[Draft]:
     """One draft per data cell of ``table``, in row-major order.
@@ -257,6 +262,8 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
         )
     }
     skip_cols.update(n_cols_idx)
+    spread_pairs = spread_columns(table, skip=skip_cols)
+    skip_cols.update(pair.col for pair in spread_pairs)
     data_rows = list(range(table.header_rows, table.n_rows))
     n_rows_idx = [r for r in data_rows if _is_n_label(table.row_label(r))]
 
@@ -340,6 +347,7 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
                 draft = draft.with_found("method", "caption", method=facts.method)
             at[(r, c)] = len(drafts)
             drafts.append(draft)
+        attach_spread_columns(table, spread_pairs, drafts, at, r)
     return drafts
 
 
@@ -354,8 +362,12 @@ def _attach_spread_row(
     """A row "Inter-quartile range" under "Median": its pairs are the spread of the value
     above in the same column (when that value has none of its own), never data points."""
     kind = "IQR" if re.search(r"quartile|IQR", label, re.I) else None
+    named = spread_level(label)  # "SD", "SE", "SEM", "95% CI"
     kind = (
-        kind or find_dispersion_statement(label) or ("range" if "range" in label.lower() else None)
+        kind
+        or find_dispersion_statement(label)
+        or (named[1] if named is not None else None)
+        or ("range" if "range" in label.lower() else None)
     )
     for c in range(1, table.n_cols):
         index = at.get((row - 1, c))
