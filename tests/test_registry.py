@@ -20,8 +20,8 @@ def test_registry_matches_golden_list() -> None:
 
 
 def test_get_by_id_and_by_name() -> None:
-    info = registry.get("quantities.rules@2")
-    assert info.id == "quantities.rules@2"
+    info = registry.get("quantities.rules@3")
+    assert info.id == "quantities.rules@3"
     assert info.factory == "quantities_rules"
     assert registry.get("quantities.rules") == info
 
@@ -44,4 +44,4 @@ def test_unknown_name_lists_available() -> None:
         registry.get("quantities.magic@9")
     message = str(info.value)
     assert "quantities.magic@9" in message
-    assert "quantities.rules@2" in message
+    assert "quantities.rules@3" in message

@@ -32,6 +32,7 @@ from spacy.language import Language
 from spacy.tokens import Doc, Span
 
 from extract.nlp.context import ContextMention, find_context, find_outcome
+from extract.nlp.count_outcome import count_outcomes
 from extract.nlp.quantities import Quantity, find_quantities
 from extract.nlp.sample_size import SampleSize, find_sample_sizes
 from extract.nlp.tokenizer import SentenceSplitter
@@ -120,7 +121,7 @@ class _RuleComponent:
 
 @register_extractor(
     "quantities.rules",
-    2,
+    3,
     factory="quantities_rules",
     description="values, units, SD/SEM/CI/IQR/range, counts with percent, roles",
 )
@@ -128,7 +129,7 @@ class QuantitiesComponent(_RuleComponent):
     """Finds every number per sentence; ``doc.spans["quantities"]`` labelled by role."""
 
     name = "quantities.rules"
-    version = 2
+    version = 3
 
     def __call__(self, doc: Doc) -> Doc:
         dispersion = doc.user_data.get(DISPERSION_KEY)
@@ -172,7 +173,7 @@ class SampleSizeComponent(_RuleComponent):
 
 @register_extractor(
     "context.rules",
-    3,
+    4,
     factory="context_rules",
     description="time point, method, subject, intervention, group; outcome of each measure",
 )
@@ -183,7 +184,7 @@ class ContextComponent(_RuleComponent):
     """
 
     name = "context.rules"
-    version = 3
+    version = 4
 
     def __call__(self, doc: Doc) -> Doc:
         spans = []
@@ -200,6 +201,18 @@ class ContextComponent(_RuleComponent):
                     (m.start, m.end) != (outcome.start, outcome.end) for m in mentions
                 ):
                     mentions.append(outcome)
+            counts = [
+                (span.start_char - sent.start_char, span.end_char - sent.start_char)
+                for span in quantities
+                if sent.start_char <= span.start_char
+                and span.end_char <= sent.end_char
+                and _is_text_count(span._.quantity)
+            ]
+            for outcome in count_outcomes(sent.text, counts):
+                if outcome is not None and all(
+                    (m.start, m.end) != (outcome.start, outcome.end) for m in mentions
+                ):
+                    mentions.append(outcome)
             for mention in mentions:
                 span = _char_span(doc, sent.start_char, mention.start, mention.end, mention.kind)
                 if span is not None:
@@ -212,6 +225,17 @@ class ContextComponent(_RuleComponent):
                     spans.append(span)
         doc.spans["context"] = spans
         return doc
+
+
+def _is_text_count(quantity: Quantity | None) -> bool:
+    """A measured count with no unit ("241 (18.9%)", "46/108"): it names what it counted after
+    itself."""
+    return (
+        quantity is not None
+        and quantity.role == "measure"
+        and quantity.statistic == "count"
+        and quantity.unit is None
+    )
 
 
 def _char_span(doc: Doc, offset: int, start: int, end: int, label: str) -> Span | None:
@@ -324,12 +348,27 @@ def analyze(
         quantities = [s._.quantity for s in doc.spans.get("quantities", []) if inside(s)]
         mentions = [s._.context for s in doc.spans.get("context", []) if inside(s)]
         outcome_mentions = [m for m in mentions if m.kind == "outcome"]
+        # A count's own outcome follows it ("241 (18.9%) cases occurred in ..."); other values
+        # never take an outcome that names what a count counted.
+        after_count = {
+            id(m): q
+            for q in quantities
+            if _is_text_count(q)
+            for m in outcome_mentions
+            if q.end <= m.start <= q.end + 3
+        }
         outcomes = []
         for quantity in quantities:
             outcome = None
             if quantity.role == "measure":
-                before = [m for m in outcome_mentions if m.end <= quantity.start]
-                outcome = before[-1] if before else None
+                own = [m for m in outcome_mentions if after_count.get(id(m)) is quantity]
+                before = [
+                    m
+                    for m in outcome_mentions
+                    if m.end <= quantity.start
+                    and (id(m) not in after_count or _is_text_count(quantity))
+                ]
+                outcome = own[0] if own else before[-1] if before else None
             outcomes.append(outcome)
         results.append(
             SentenceFindings(

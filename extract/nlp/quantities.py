@@ -482,13 +482,20 @@ def _classify_role(norm: str, draft: _Draft, *, in_citation: bool) -> str:
         return "label"
     if re.match(r"\d*:\d", norm[draft.end : draft.end + 3]) or re.search(r"\d:$", before):
         return "ratio"
+    if draft.total is not None and _is_slash_ratio(norm, draft, before):
+        return "ratio"
     if _P_BEFORE.search(before):
         return "p_value"
     if _REF_BEFORE.search(before):
         return "reference"
     if _N_BEFORE.search(before):
         return "sample_size"
-    if draft.unit is None and _SAMPLE_AFTER.match(after) and draft.value.is_integer():
+    if (
+        draft.unit is None
+        and draft.percent is None  # "241 (18.9%) cases occurred ...": a count, not an n
+        and _SAMPLE_AFTER.match(after)
+        and draft.value.is_integer()
+    ):
         return "sample_size"
     is_time = unit.lower() in _TIME_UNITS
     if is_time and (
@@ -522,6 +529,30 @@ def _classify_role(norm: str, draft: _Draft, *, in_citation: bool) -> str:
         # "in 2007 (9)": a year and its reference number, not a value and its spread.
         return "year"
     return "measure"
+
+
+_RATIO_WORD_BEFORE = re.compile(
+    r"\b(?:ratios?|mixtures?|proportions? of|split|[A-Za-z][\w()+-]*/[A-Za-z(][\w()+-]*\s*=)"
+    r"[^.;]{0,50}$",
+    re.I,
+)
+_SLASH_PAIR = re.compile(r"(?<![\w./])(\d+)/(\d+)(?![\d.])")
+
+
+def _is_slash_ratio(norm: str, draft: _Draft, before: str) -> bool:
+    """Whether "a/b" is a ratio ("95/5", "mixture ratios of 60/40") rather than a count of a
+    total ("46/108 neurons"): the part exceeds the whole, the clause says ratio or mixture or
+    writes "A/B = a/b", or the pair is one of a list of pairs that all add up to the same sum."""
+    assert draft.total is not None
+    if draft.value > draft.total or _RATIO_WORD_BEFORE.search(before):
+        return True
+    pairs = [
+        (int(m.group(1)), int(m.group(2)))
+        for m in _SLASH_PAIR.finditer(norm[max(0, draft.start - 60) : draft.end + 60])
+    ]
+    sums = {a + b for a, b in pairs}
+    totals = {b for _, b in pairs}
+    return len(pairs) >= 2 and len(sums) == 1 and len(totals) > 1
 
 
 def _statistic(norm: str, draft: _Draft, *, header_statistic: str | None) -> str:

@@ -311,3 +311,29 @@ def test_labelled_sd_with_n_in_the_same_bracket() -> None:
     (value, *_) = find_quantities("Zelmar content was 274.1 ppm (SD = 219.7; n = 10).")
     assert (value.value, value.unit) == (274.1, "ppm")
     assert value.spread is not None and (value.spread.kind, value.spread.value) == ("SD", 219.7)
+
+
+# Ratios written with a slash are no counts of a total (common practice: "a/b" reports a count
+# of a total only when the part is at most the whole; mixture and sex ratios are ratios).
+@pytest.mark.parametrize(
+    "text",
+    [
+        "Flasks held blends of Quorvan and Peltide (mixture ratios of 95/5, 80/20, 20/80 and 5/95).",
+        "Hard trials used blends of 60/40, 50/50 and 40/60 in random order.",
+        "Grafts were mostly early (EGR/LGR, 6/1) in the Brindle cohort.",
+        "Pellets [Quorvan/Peltide = 70/30] were offered daily.",
+    ],
+)
+def test_slash_pairs_that_are_ratios_are_not_counts(text: str) -> None:
+    slashed = [q for q in find_quantities(text) if q.total is not None]
+    assert slashed
+    assert {q.role for q in slashed} == {"ratio"}
+
+
+def test_count_of_a_total_stays_a_measure() -> None:
+    text = "Of the recorded cells, 46/108 fired early and 3/108 fired late."
+    slashed = [q for q in find_quantities(text) if q.total is not None]
+    assert [(q.value, q.total, q.role) for q in slashed] == [
+        (46, 108, "measure"),
+        (3, 108, "measure"),
+    ]
