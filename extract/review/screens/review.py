@@ -139,10 +139,11 @@ class ReviewScreen(Screen[None]):
         total = len(session.states)
         position = "-" if session.index is None else str(session.index + 1)
         decided = total - counts.get("pending", 0) - counts.get("skipped", 0)
+        # Counts first: at 80 columns a long article id is what gets cut, not the progress.
         return Text.assemble(
+            (f"{position}/{total}", "bold"),
+            f" · {decided} decided · {counts.get('pending', 0)} pending · {session.curator} · ",
             (session.article_id, "bold"),
-            f"  proposal {position}/{total}  ·  {decided} decided  ·  "
-            f"{counts.get('pending', 0)} pending  ·  curator {session.curator}",
         )
 
     def redraw(self) -> None:
