@@ -16,6 +16,7 @@ from extract.ingest.document import Document, Table
 from extract.nlp.context import find_context
 from extract.nlp.quantities import Quantity, find_dispersion_statement
 from extract.records.draft import Draft
+from extract.records.n_columns import n_columns
 from extract.records.patterns import (
     clean_label,
     find_group_n,
@@ -49,7 +50,7 @@ from extract.records.table_labels import (
 from extract.registry import register_extractor
 
 #: The extractor that reads table cells.
-EXTRACTOR = "tables.cells@5"
+EXTRACTOR = "tables.cells@6"
 
 _GROUP_WORDS = re.compile(
     r"\b(?:vehicle|control|controls|sham|placebo|saline|naive|naïve|untreated|treated|treatment|"
@@ -153,6 +154,8 @@ def _header_levels(table: Table, col: int) -> _Header:
             total = numeric_level(text)
         elif col > 0 and table.header_rows > 1 and is_stat_level(text) and statistic is None:
             statistic = _level_statistic(text)
+        elif col > 0 and table.header_rows > 1 and statistic is None and stat_row(text):
+            statistic = (stat_row(text) or ("mean", None))[0]  # "Mean (SD)" under a group
         elif col > 0 and table.header_rows > 1 and is_ratio_label(text) and statistic is None:
             statistic = "other"  # "HR (95% CI)" over the comparison it reports
         else:
@@ -224,7 +227,7 @@ def _facts(table: Table) -> _TableFacts:
 
 
 @register_extractor(
-    "tables.cells", 5, factory=None, description="data cells of tables, with headers, n and spread"
+    "tables.cells", 6, factory=None, description="data cells of tables, with headers, n and spread"
 )
 def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> list[Draft]:
     """One draft per data cell of ``table``, in row-major order.
@@ -262,6 +265,8 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
         )
     }
     skip_cols.update(n_cols_idx)
+    n_pairs = n_columns(table)
+    skip_cols.update(n_pairs.values())
     spread_pairs = spread_columns(table, skip=skip_cols)
     skip_cols.update(pair.col for pair in spread_pairs)
     data_rows = list(range(table.header_rows, table.n_rows))
@@ -339,8 +344,16 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
                 header=header,
                 row_stat=row_stat,
                 outcome_label=row_label if facts.by_columns else col_label,
-                n_from_row=_n_from(table, n_rows_idx, c, by_rows=True),
-                n_from_col=_n_from(table, n_cols_idx, r, by_rows=False),
+                n_from_row=(
+                    _int_cell(table.cell(r, n_pairs[c]).text)
+                    if c in n_pairs
+                    else _n_from(table, n_rows_idx, c, by_rows=True)
+                ),
+                n_from_col=(
+                    _int_cell(table.cell(r, n_pairs[c]).text)
+                    if c in n_pairs
+                    else _n_from(table, n_cols_idx, r, by_rows=False)
+                ),
                 time_point=time_point or facts.time_point,
             )
             if facts.method is not None:
@@ -398,6 +411,8 @@ def _split_levels(
         text = clean_label(table.cell(r, col).text)
         if not text or text in groups or text == outcome or is_stat_level(text):
             continue
+        if stat_row(text) is not None:
+            continue  # "Mean (SD)" under a group names the statistic, not the group
         if numeric_level(text) is not None:
             continue
         if not outcome and split_label(text)[1]:

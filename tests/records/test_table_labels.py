@@ -50,10 +50,7 @@ def test_bare_value_without_any_cue_is_single() -> None:
     assert all(p.dispersion is None for p in proposals)
 
 
-@pytest.mark.parametrize(
-    ("level", "statistic"),
-    [("n", "count"), ("No.", "count"), ("Number", "count"), ("Percent", "percent")],
-)
+@pytest.mark.parametrize(("level", "statistic"), [("Percent", "percent"), ("Median", "median")])
 def test_header_level_names_the_statistic(level: str, statistic: str) -> None:
     grid = [
         ["Drug use", "Arm A", "Arm A"],
@@ -67,6 +64,23 @@ def test_header_level_names_the_statistic(level: str, statistic: str) -> None:
     assert cells[(2, 2)].statistic == "mean"
     # The statistic level is not part of the group's name; the row is the time point.
     assert cells[(2, 1)].group == "Arm A" and cells[(3, 1)].time_point == "Week 12"
+
+
+@pytest.mark.parametrize("level", ["n", "No.", "Number"])
+def test_n_level_beside_a_mean_is_its_sample_size(level: str) -> None:
+    # An n column beside a mean under one group header is the mean's n (CONSORT 2010 item 17a:
+    # the number analysed goes with each group's estimate), not a count of its own.
+    grid = [
+        ["Drug use", "Arm A", "Arm A"],
+        ["", level, "Mean"],
+        ["Week 0", "41", "2.5"],
+        ["Week 12", "37", "2.1"],
+    ]
+    proposals = first_pass(make_document(tables=(make_table(grid, header_rows=2),)))
+    cells = _by_cell(proposals)
+    assert set(cells) == {(2, 2), (3, 2)}
+    assert (cells[(2, 2)].statistic, cells[(2, 2)].n, cells[(3, 2)].n) == ("mean", 41, 37)
+    assert cells[(2, 2)].group == "Arm A" and cells[(3, 2)].time_point == "Week 12"
 
 
 def test_statistic_rows_take_the_section_as_outcome() -> None:
