@@ -109,8 +109,15 @@ def find_rules_only(
             for s in segments
             if s.horizontal and top < s.top < (header_bottom or bottom) - 1 and s.x1 - s.x0 > 10
         ]
+        row_rules = [y for y in inner if header_bottom is not None and y > header_bottom + 1]
         table = table_from_text(
-            words, box, page, style="rules", header_bottom=header_bottom, span_rules=partial
+            words,
+            box,
+            page,
+            style="rules",
+            header_bottom=header_bottom,
+            span_rules=partial,
+            row_rules=row_rules,
         )
         if table is not None:
             tables.append(table)
@@ -137,7 +144,7 @@ def _table_band(band: Sequence[Sequence[RawWord]], width: float) -> bool:
         return False
     if any(caption_label(" ".join(w.text for w in line), bold=line[0].bold) for line in band):
         return False
-    return sum(is_prose(line, width) for line in band) * 3 <= len(band)
+    return sum(is_prose(line, width) and not is_data_line(line) for line in band) * 3 <= len(band)
 
 
 def _inside(seg: Segment, box: BBox) -> bool:

@@ -21,6 +21,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass, field
 
 from extract.ingest.glyphs import Segment
+from extract.ingest.table_rows import band_of, join_ranges, merge_bands, rule_under
 from extract.ingest.tables import RawTable, words_in
 from extract.ingest.words import RawWord
 
@@ -184,9 +185,9 @@ def _header_cells(
             centre = (x0 + x1) / 2
             for rule in span_rules:
                 if 0 <= rule.top - bottom <= 8 and rule.x0 - 2 <= centre <= rule.x1 + 2:
-                    under = [
-                        i for i, (b0, b1) in enumerate(bounds) if b0 < rule.x1 and b1 > rule.x0
-                    ]
+                    same_y = [s for s in span_rules if abs(s.top - rule.top) <= 1]
+                    r0, r1 = rule_under(x0, x1, same_y) or (rule.x0, rule.x1)
+                    under = [i for i, (b0, b1) in enumerate(bounds) if b0 < r1 and b1 > r0]
                     cols, ruled = under or cols, bool(under)
             above = next(
                 (
@@ -309,6 +310,7 @@ def table_from_text(
     style: str,
     header_bottom: float | None,
     span_rules: Sequence[Segment] = (),
+    row_rules: Sequence[float] = (),
 ) -> RawTable | None:
     """A table grid from the words inside ``box``.
 
@@ -320,12 +322,17 @@ def table_from_text(
         header_bottom: the y of the rule under the header, or ``None`` to take the lines
             above the first body row (see :func:`is_data_line`) as the header.
         span_rules: short rules inside the header.
+        row_rules: y values of full-width rules between body rows (a label set over several
+            lines in one band joins the band's row of values).
 
     Returns:
         The table, or ``None`` when the region has fewer than two rows or two columns.
     """
     rows = rows_of(words_in(words, box))
-    if len(rows) < 2 or sum(is_prose(row, box[2] - box[0]) for row in rows) * 3 > len(rows):
+    width = box[2] - box[0]
+    if len(rows) < 2 or sum(is_prose(r, width) and not is_data_line(r) for r in rows) * 3 > len(
+        rows
+    ):
         return None  # running text between two rules (a page frame, a boxed panel)
     if header_bottom is not None:
         n_head = sum(1 for row in rows if max(w.bottom for w in row) <= header_bottom + 1)
@@ -335,7 +342,11 @@ def table_from_text(
             n_head = 1  # no body row where one is expected: take the first line as the header
         n_head = guessed_header_end(rows, n_head)
     head, body = rows[:n_head], rows[n_head:]
-    body_cells = [cells_of(row) for row in body]
+    body_cells: list[list[list[RawWord]]] = [list(map(list, cells_of(row))) for row in body]
+    if row_rules:
+        bands = [band_of(min(w.top for w in row), row_rules) for row in body]
+        body_cells = merge_bands(body_cells, bands)
+    body_cells = join_ranges(body_cells)
     bounds = column_bounds(body_cells or [cells_of(row) for row in head])
     if len(bounds) < 2:
         return None
