@@ -15,6 +15,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 
+from extract.nlp.outcome_trim import sentence_subject, trim_outcome
 from extract.nlp.tokenizer import normalize_text
 
 __all__ = [
@@ -261,6 +262,8 @@ _NOT_MEASURE_AFTER = re.compile(r"^\s*(?:mg|µg|μg|ug|ng|mL|µL|μL|IU|mM|µM|�
 _PLURAL_HEADS = frozenset(
     "counts levels concentrations values scores weights volumes rates times pressures".split()
 )
+#: A "was/were" link right before the value: its subject may open the sentence.
+_SUBJECT_LINK = re.compile(r"\b(?:was|were)\s*[^\w]*$", re.I)
 _CHANGE_BY = re.compile(r"\s+(?:changed|increased|decreased|rose|fell)\s+by\b", re.I)
 _CLAUSE_CUT = re.compile(
     r"[;:]|,\s|\band\b|\bwhile\b|\bwhereas\b|\bbut\b|\bvs\.?|\bversus\b|\bthan\b", re.I
@@ -463,6 +466,15 @@ def find_outcome(text: str, start: int) -> ContextMention | None:
             trimmed = trimmed[lead.end() :]
             lead = _OUTCOME_LEADING.match(trimmed)
         trimmed = _METHOD_TAIL.sub("", trimmed)
+        cut = trim_outcome(trimmed)
+        subject = sentence_subject(norm) if _SUBJECT_LINK.search(head) else None
+        if cut is None and subject is not None:
+            # "The rate of X (unit) to maintain ... (i.e., basal period) were 1.9": the subject
+            offset, trimmed = subject[0], norm[subject[0] : subject[1]]
+        elif cut is None:
+            trimmed = ""
+        else:
+            offset, trimmed = offset + cut[0], cut[1]
         words = trimmed.split()
         after_number = re.search(r"\d\s*$", norm[:offset]) is not None
         if (
