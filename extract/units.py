@@ -470,3 +470,9 @@ def _tidy(number: float) -> float:
         return number
     digits = 12 - int(math.floor(math.log10(abs(number)))) - 1
     return round(number, digits)
+
+
+def clear_caches() -> None:
+    """Forget cached unit readings and conversions (the registry itself stays built)."""
+    _unit_info.cache_clear()
+    _to_canonical.cache_clear()

@@ -466,15 +466,15 @@ def find_outcome(text: str, start: int) -> ContextMention | None:
             trimmed = trimmed[lead.end() :]
             lead = _OUTCOME_LEADING.match(trimmed)
         trimmed = _METHOD_TAIL.sub("", trimmed)
-        cut = trim_outcome(trimmed)
+        kept = trim_outcome(trimmed)
         subject = sentence_subject(norm) if _SUBJECT_LINK.search(head) else None
-        if cut is None and subject is not None:
+        if kept is None and subject is not None:
             # "The rate of X (unit) to maintain ... (i.e., basal period) were 1.9": the subject
             offset, trimmed = subject[0], norm[subject[0] : subject[1]]
-        elif cut is None:
+        elif kept is None:
             trimmed = ""
         else:
-            offset, trimmed = offset + cut[0], cut[1]
+            offset, trimmed = offset + kept[0], kept[1]
         words = trimmed.split()
         after_number = re.search(r"\d\s*$", norm[:offset]) is not None
         if (

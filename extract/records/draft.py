@@ -7,7 +7,8 @@ derives the SD, normalises the unit, scores confidence from ``found`` and gives 
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field, replace
+import copy
+from dataclasses import dataclass, field, fields
 from typing import Any
 
 from extract.records.proposal import Source
@@ -72,10 +73,25 @@ class Draft:
     def with_found(self, name: str, how: str, **changes: Any) -> Draft:
         """A copy with ``changes`` applied and field ``name`` recorded as found ``how``."""
         found = tuple((k, h) for k, h in self.found if k != name) + ((name, how),)
-        return replace(self, found=found, **changes)
+        return self._copy_with(found=found, **changes)
 
     def with_flag(self, flag: str) -> Draft:
         """A copy with one more flag."""
         if flag in self.flags:
             return self
-        return replace(self, flags=self.flags + (flag,))
+        return self._copy_with(flags=self.flags + (flag,))
+
+    def _copy_with(self, **changes: Any) -> Draft:
+        # dataclasses.replace re-runs __init__ over every field; linking copies drafts thousands
+        # of times per article, so copy the instance and set only what changes.
+        unknown = set(changes) - _FIELD_NAMES
+        if unknown:
+            raise TypeError(f"Draft has no field(s) {sorted(unknown)}")
+        new = copy.copy(self)
+        for name, value in changes.items():
+            object.__setattr__(new, name, value)
+        return new
+
+
+#: Names of the Draft fields, checked by :meth:`Draft._copy_with`.
+_FIELD_NAMES: frozenset[str] = frozenset(f.name for f in fields(Draft))

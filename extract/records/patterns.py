@@ -5,11 +5,15 @@ Numbers, spreads, dispersion statements and sample sizes are read by :mod:`extra
 ``sample_size.find_sample_sizes``). What stays here is the shape of table labels: footnote marks
 on cells, empty marks, "Body mass (g)" (a label and its unit), "Vehicle (n = 9)" (a group and its
 n), and the per-group n of a statement, read through the nlp sample-size reader.
+
+The label and cell readers are pure functions of their text and are cached: a table repeats its
+labels for every cell, and a batch repeats them across articles.
 """
 
 from __future__ import annotations
 
 import re
+from functools import lru_cache
 
 from extract.nlp.quantities import Quantity, parse_cell
 from extract.nlp.sample_size import find_sample_sizes
@@ -54,6 +58,7 @@ _GROUP_SEX_SPLIT = re.compile(
 _CENSORED = re.compile(r"^(?:[<>≤≥]|[pP]\s*[=<>])")
 
 
+@lru_cache(maxsize=16384)
 def clean_cell(text: str) -> str:
     """Cell text without footnote marks and surrounding space."""
     text = " ".join(text.split())
@@ -62,12 +67,14 @@ def clean_cell(text: str) -> str:
     return text.strip(_MARKS + " ")
 
 
+@lru_cache(maxsize=16384)
 def clean_label(text: str) -> str:
     """A header or row label without footnote markers: "Status not recorded†" -> "Status not
     recorded", "Total²" -> "Total", "* Excluded" -> "Excluded"."""
     return " ".join(_LABEL_MARKS.sub("", " ".join(text.split())).split())
 
 
+@lru_cache(maxsize=16384)
 def is_plausible_unit(text: str, *, strict: bool = False) -> bool:
     """Whether a label's bracketed or comma-set tail can be a unit as written.
 
@@ -96,6 +103,7 @@ def is_empty_cell(text: str) -> bool:
     return bool(_EMPTY_CELL.match(clean_cell(text)))
 
 
+@lru_cache(maxsize=16384)
 def read_cell(text: str) -> Quantity | None:
     """The data value of one table cell, read by :func:`extract.nlp.quantities.parse_cell`.
 
@@ -114,6 +122,7 @@ def read_cell(text: str) -> Quantity | None:
     return quantity
 
 
+@lru_cache(maxsize=16384)
 def split_label(label: str) -> tuple[str, str | None]:
     """A header or row label split into its name and the unit written after it.
 
@@ -207,3 +216,9 @@ def find_n(text: str) -> int | None:
         if size.n is not None and size.scope != "total" and re.match(r"[nN]\b", size.text):
             return size.n
     return None
+
+
+def clear_caches() -> None:
+    """Forget the cached label and cell readings (for benchmarks that must start cold)."""
+    for reader in (clean_cell, clean_label, is_plausible_unit, read_cell, split_label):
+        reader.cache_clear()
