@@ -211,12 +211,14 @@ def _header_rows_from_spans(
     return header
 
 
-_NUMERIC = re.compile(r"[-−+]?\d")
+#: A value cell opens with its number ("310.2 ± 18.0", "42 (37.5%)", "−0.8", "<0.001"); a group
+#: label may hold a number inside it ("OVZ 1 mg/kg") and is still a label.
+_NUMERIC = re.compile(r"^\s*[<>≤≥~]?\s*[-−+]?\.?\d")
 
 
 def _is_data_row(row: Sequence[str]) -> bool:
     cells = [c for c in row[1:] if c.strip()]
-    return bool(cells) and sum(1 for c in cells if _NUMERIC.search(c)) * 2 >= len(cells)
+    return bool(cells) and sum(1 for c in cells if _NUMERIC.match(c)) * 2 >= len(cells)
 
 
 def raw_to_cells(table: RawTable) -> tuple[TableCell, ...]:
