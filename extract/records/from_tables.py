@@ -26,6 +26,7 @@ from extract.records.patterns import (
     read_cell,
     split_label,
 )
+from extract.records.pct_cells import count_pct_draft
 from extract.records.proposal import Source
 from extract.records.spread_columns import (
     attach_spread_columns,
@@ -34,6 +35,7 @@ from extract.records.spread_columns import (
 )
 from extract.records.table_labels import (
     caption_outcome,
+    comparison_level,
     is_bare_integer,
     is_count_caption,
     is_count_level,
@@ -47,10 +49,11 @@ from extract.records.table_labels import (
     section_above,
     stat_row,
 )
+from extract.records.time_axis import time_axis_columns, time_axis_rows
 from extract.registry import register_extractor
 
 #: The extractor that reads table cells.
-EXTRACTOR = "tables.cells@6"
+EXTRACTOR = "tables.cells@7"
 
 _GROUP_WORDS = re.compile(
     r"\b(?:vehicle|control|controls|sham|placebo|saline|naive|naïve|untreated|treated|treatment|"
@@ -125,6 +128,7 @@ class _Header:
     statistic: str | None = None
     n: int | None = None
     full: str = ""
+    qualifier: str | None = None
 
 
 def _level_statistic(text: str) -> str | None:
@@ -142,6 +146,7 @@ def _header_levels(table: Table, col: int) -> _Header:
     time_point: str | None = None
     statistic: str | None = None
     total: int | None = None
+    qualifier: str | None = None
     seen: list[str] = []
     for r in range(table.header_rows):
         text = clean_label(table.cell(r, col).text)
@@ -150,6 +155,11 @@ def _header_levels(table: Table, col: int) -> _Header:
         seen.append(text)
         if _TIME_WORDS.match(text) and time_point is None:
             time_point = text
+        elif col > 0 and qualifier is None and (split := comparison_level(text)) is not None:
+            # "Change from baseline" or "Mixed model" under a group qualifies the outcome
+            rest, qualifier = split
+            if rest:
+                parts.append(rest)
         elif col > 0 and numeric_level(text) is not None and total is None:
             total = numeric_level(text)
         elif col > 0 and table.header_rows > 1 and is_stat_level(text) and statistic is None:
@@ -161,7 +171,7 @@ def _header_levels(table: Table, col: int) -> _Header:
         else:
             parts.append(text)
     label = " ".join(parts)
-    return _Header(label, time_point, statistic, total, " ".join(seen))
+    return _Header(label, time_point, statistic, total, " ".join(seen), qualifier)
 
 
 def _is_n_label(label: str) -> bool:
@@ -227,7 +237,7 @@ def _facts(table: Table) -> _TableFacts:
 
 
 @register_extractor(
-    "tables.cells", 6, factory=None, description="data cells of tables, with headers, n and spread"
+    "tables.cells", 7, factory=None, description="data cells of tables, with headers, n and spread"
 )
 def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> list[Draft]:
     """One draft per data cell of ``table``, in row-major order.
@@ -271,6 +281,9 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
     skip_cols.update(pair.col for pair in spread_pairs)
     data_rows = list(range(table.header_rows, table.n_rows))
     n_rows_idx = [r for r in data_rows if _is_n_label(table.row_label(r))]
+    time_cols = time_axis_columns(table, [col_info[c].label for c in range(table.n_cols)])
+    skip_cols.update(time_cols)
+    axis_rows = time_axis_rows(table)
 
     drafts: list[Draft] = []
     at: dict[tuple[int, int], int] = {}
@@ -278,6 +291,9 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
         body_label = clean_label(table.row_label(r))
         if r in n_rows_idx or _P_HEADER.match(body_label) or is_section_row(table, r):
             continue
+        if r in axis_rows:
+            continue
+        row_time = next((time_cols[c] + " " + _int_text(table, r, c) for c in time_cols), None)
         if facts.by_columns and is_spread_row(body_label) and r > table.header_rows:
             _attach_spread_row(table, r, body_label, drafts, at, skip_cols)
             continue
@@ -291,6 +307,7 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
                 continue
             header = col_info[c]
             row_label, col_label, time_point = body_label, header.label, header.time_point
+            time_point = time_point or row_time or _col_time(table, axis_rows, c)
             if facts.time_rows:
                 # Time points down the rows: the outcome and group come from the header levels.
                 row_label, col_label = _split_levels(table, c, section, facts.caption_outcome)
@@ -333,6 +350,16 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
             )
             if draft is None:
                 continue
+            if header.qualifier and facts.by_columns:
+                draft = draft._copy_with(outcome=f"{draft.outcome}, {header.qualifier.lower()}")
+            draft = count_pct_draft(
+                draft,
+                table,
+                r,
+                c,
+                texts=(header.full, table.row_label(r), _corner(table), _table_texts(table)),
+                total=header.n if header.n is not None else group_and_n(header.full)[1],
+            )
             draft = _fill_from_table(
                 draft,
                 table,
@@ -362,6 +389,22 @@ def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> lis
             drafts.append(draft)
         attach_spread_columns(table, spread_pairs, drafts, at, r)
     return drafts
+
+
+def _int_text(table: Table, row: int, col: int) -> str:
+    return clean_label(table.cell(row, col).text)
+
+
+def _col_time(table: Table, time_rows: dict[int, str], col: int) -> str | None:
+    for r, unit in time_rows.items():
+        text = clean_label(table.cell(r, col).text)
+        if text:
+            return f"{unit} {text}"
+    return None
+
+
+def _corner(table: Table) -> str:
+    return " ".join(table.cell(r, 0).text for r in range(table.header_rows))
 
 
 def _attach_spread_row(

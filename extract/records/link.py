@@ -537,6 +537,7 @@ CONFIDENCE_PENALTIES: dict[str, float] = {
     "range_only": 0.9,
     "method_from_methods": 0.97,
     "time_point_from_methods": 0.95,
+    "spread_like_percent": 0.7,
 }
 #: Statistics that need no unit (a count or a percentage is complete without one).
 _UNITLESS = frozenset({"count", "percent"})

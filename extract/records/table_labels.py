@@ -47,6 +47,13 @@ _MODEL_ROW = re.compile(
     r"multivariable|multivariate|univariable|univariate)$",
     re.I,
 )
+#: A header level (or the end of one) that names a comparison or a model, not a group.
+_COMPARISON = re.compile(
+    r"(?:^|\s)(?P<level>(?:(?:mean|LS[- ]mean|adjusted)\s+)?changes?\s+from\s+baseline|"
+    r"(?:(?:mean|between[- ]groups?|adjusted)\s+)?differences?|"
+    r"mixed[- ]effects?(?:\s+models?)?|mixed\s+models?|ANCOVA)$",
+    re.I,
+)
 #: A caption that says the table counts something: "Number of ...", "No. of ...", "Counts of".
 _COUNT_CAPTION = re.compile(r"^(?:(?:the\s+)?(?:number|no\.|numbers|counts?)\s+of\b)", re.I)
 _CAPTION_LABEL = re.compile(r"^\s*(?:table|tab\.)\s*[A-Z]?\d+[A-Za-z]?\s*[.:|—–-]?\s*", re.I)
@@ -111,6 +118,17 @@ def is_ratio_label(text: str) -> bool:
 def is_model_row(label: str) -> bool:
     """True for a row label that names an analysis model ("Model 1", "Adjusted")."""
     return bool(_MODEL_ROW.match(clean_label(label)))
+
+
+def comparison_level(text: str) -> tuple[str, str] | None:
+    """A header level split into (the rest, the comparison or model it ends with):
+    "Change from baseline" -> ("", "Change from baseline"); "Usual care Change from Baseline"
+    -> ("Usual care", "Change from Baseline"); "Mixed model" -> ("", "Mixed model"); else None (a bare "Mixed" may name a group)."""
+    label = clean_label(text)
+    match = _COMPARISON.search(label)
+    if match is None:
+        return None
+    return label[: match.start()].strip(" ,;:-"), match["level"]
 
 
 def is_count_caption(caption: str) -> bool:
