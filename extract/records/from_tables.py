@@ -458,6 +458,10 @@ def _split_levels(
             continue  # "Mean (SD)" under a group names the statistic, not the group
         if numeric_level(text) is not None:
             continue
+        if (split := comparison_level(text)) is not None:
+            text = split[0]  # "Usual care Change from baseline": the comparison is no group
+            if not text or text in groups:
+                continue
         if not outcome and split_label(text)[1]:
             outcome = text
         else:

@@ -120,3 +120,17 @@ def test_change_from_baseline_level_qualifies_the_outcome_not_the_group() -> Non
     assert cells[(2, 2)].group == "Usual care"
     assert cells[(2, 1)].outcome == "Drenwick score, change from baseline"
     assert cells[(2, 1)].value == -4.1
+
+
+def test_comparison_level_leaves_groups_of_a_table_with_time_rows() -> None:
+    grid = [
+        ["", "Velmora arm Change from baseline", "Usual care Change from baseline"],
+        ["3 mo", "-2.1 ± 1.0", "-0.4 ± 1.1"],
+        ["6 mo", "-3.0 ± 1.2", "-0.9 ± 1.0"],
+    ]
+    caption = "Table 4. Drenwick score by month"
+    cells = _run(make_table(grid, caption=caption), "fx-change-rows")
+    assert cells[(2, 1)].group == "Velmora arm"
+    assert cells[(2, 2)].group == "Usual care"
+    assert cells[(2, 2)].time_point == "6 mo"
+    assert cells[(2, 2)].outcome.endswith("change from baseline")
