@@ -15,6 +15,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 
+from extract.nlp.abbreviations import long_form_for
 from extract.nlp.outcome_trim import sentence_subject, trim_outcome
 from extract.nlp.tokenizer import normalize_text
 
@@ -265,6 +266,10 @@ _PLURAL_HEADS = frozenset(
 #: A "was/were" link right before the value: its subject may open the sentence.
 _SUBJECT_LINK = re.compile(r"\b(?:was|were)\s*[^\w]*$", re.I)
 _CHANGE_BY = re.compile(r"\s+(?:changed|increased|decreased|rose|fell)\s+by\b", re.I)
+_BARE_CHANGE = re.compile(
+    r"(?:increase|decrease|reduction|rise|fall|decline|drop|elevation)s?", re.I
+)
+_DEFINED_AT_END = re.compile(r"\s*\((?P<short>[A-Za-z][\w-]{0,8}\w)\)$")
 _CLAUSE_CUT = re.compile(
     r"[;:]|,\s|\band\b|\bwhile\b|\bwhereas\b|\bbut\b|\bvs\.?|\bversus\b|\bthan\b", re.I
 )
@@ -411,6 +416,22 @@ def _find_groups(text: str, norm: str) -> list[ContextMention]:
     return found
 
 
+def _expand_defined(norm: str, offset: int, phrase: str) -> tuple[int, str]:
+    """Widen a phrase that ends in an abbreviation defined there to its whole long form:
+    "event (NSAE)" of "a non-serious adverse event (NSAE)" -> "non-serious adverse event (NSAE)"."""
+    match = _DEFINED_AT_END.search(phrase)
+    if match is None:
+        return offset, phrase
+    before = norm[: offset + match.start()].rstrip()
+    long_form = long_form_for(match["short"], before)
+    if long_form is None or not before.endswith(long_form):
+        return offset, phrase
+    start = len(before) - len(long_form)
+    if start >= offset:
+        return offset, phrase
+    return start, norm[start : offset + len(phrase)]
+
+
 def find_outcome(text: str, start: int) -> ContextMention | None:
     """The outcome (measured thing) a value at ``start`` belongs to.
 
@@ -466,6 +487,12 @@ def find_outcome(text: str, start: int) -> ContextMention | None:
             trimmed = trimmed[lead.end() :]
             lead = _OUTCOME_LEADING.match(trimmed)
         trimmed = _METHOD_TAIL.sub("", trimmed)
+        widened = (trimmed + clause[match.end(1) :]).rstrip(" :=(")
+        if _BARE_CHANGE.fullmatch(trimmed) and re.match(
+            rf"{trimmed}\s+(?:in|of)\s+[A-Za-z]", widened
+        ):
+            # "the increase in X in group Y was 4": the measured thing follows the change noun
+            trimmed = widened
         kept = trim_outcome(trimmed)
         subject = sentence_subject(norm) if _SUBJECT_LINK.search(head) else None
         if kept is None and subject is not None:
@@ -475,6 +502,7 @@ def find_outcome(text: str, start: int) -> ContextMention | None:
             trimmed = ""
         else:
             offset, trimmed = offset + kept[0], kept[1]
+            offset, trimmed = _expand_defined(norm, offset, trimmed)
         words = trimmed.split()
         after_number = re.search(r"\d\s*$", norm[:offset]) is not None
         if (

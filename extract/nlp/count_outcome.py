@@ -14,6 +14,7 @@ from __future__ import annotations
 import re
 
 from extract.nlp.context import ContextMention
+from extract.nlp.outcome_trim import dangling
 from extract.nlp.tokenizer import normalize_text
 
 __all__ = ["count_outcomes"]
@@ -89,7 +90,7 @@ def count_outcomes(text: str, spans: list[tuple[int, int]]) -> list[ContextMenti
             carried = _verb_part(_AUXILIARY.sub("", phrase)) or carried
         value = _AUXILIARY.sub("", value)
         words = value.split()
-        if not words or not re.search(r"[A-Za-z]{2}", value):
+        if not words or not re.search(r"[A-Za-z]{2}", value) or dangling(value):
             found.append(None)
             continue
         value = " ".join(words[:_MAX_WORDS])

@@ -25,6 +25,21 @@ _SUBJECT_END = re.compile(
     r"\s*\(|,|\s(?:to|that|which|who|during|measured|obtained|in order|was|were|is|are)\s", re.I
 )
 _ARTICLE = re.compile(r"^(?:the|a|an)\s+", re.I)
+#: A change noun opening a phrase: its measured thing is the object of "in/of" after it
+#: ("the increase in plasma zerafin in the treated group" measures plasma zerafin).
+_CHANGE_HEAD = re.compile(
+    r"^(?:(?:the|an?)\s+)?(?:increase|decrease|reduction|rise|fall|decline|drop|elevation)s?"
+    r"\s+(?:in|of)\s+(?:the\s+)?(?=[A-Za-z])",
+    re.I,
+)
+#: Where the object of a change noun ends: a second "in/among/for" names a group or place.
+_OBJECT_END = re.compile(
+    r"\s+(?:in|among|for|with|after|during|at|was|were|is|are|by)\s|\s+(?:was|were|is|are)$", re.I
+)
+#: A verb and a number inside a phrase ("event (NSAE) was 56"): the phrase ends before the verb.
+_VERB_NUMBER = re.compile(r"\s+(?:was|were|is|are|remained|reached|totalled|totaled)\s+\d.*$", re.I)
+#: A phrase cut short by a line or clause break ("exhibited no", "neurons exhibited an").
+_DANGLING = re.compile(r"\s(?:a|an|the|no|not|of|in|to|by|with|and|or|both)$", re.I)
 
 
 def unbalanced(phrase: str) -> bool:
@@ -44,11 +59,18 @@ def trim_outcome(phrase: str) -> tuple[int, str] | None:
     """The measured noun phrase inside ``phrase``, as (offset into ``phrase``, text).
 
     "of glucose clearance (ml/kg/min) increased" -> (3, "glucose clearance");
+    "the increase in plasma zerafin in treated rats" -> (16, "plasma zerafin");
+    "event (NSAE) was 56" -> (0, "event (NSAE)");
     "basal period)" -> None (a piece of a parenthetical); "not different from that" -> None.
     """
-    offset, text = 0, phrase.strip()
+    offset, text = 0, _VERB_NUMBER.sub("", phrase.strip())
     if unbalanced(text) or _PRONOUN.search(text):
         return None
+    change = _CHANGE_HEAD.match(text)
+    if change:
+        offset, text = change.end(), text[change.end() :]
+        end = _OBJECT_END.search(text)
+        text = text[: end.start()] if end else text
     while True:
         before = text
         lead = _LEAD_PREP.match(text)
@@ -60,6 +82,12 @@ def trim_outcome(phrase: str) -> tuple[int, str] | None:
         if text == before:
             break
     return (offset, text) if text else None
+
+
+def dangling(phrase: str) -> bool:
+    """True when a phrase ends in a word that needs another after it ("exhibited no",
+    "neurons exhibited an"): the sentence was cut there and the measured thing is lost."""
+    return _DANGLING.search(phrase.strip()) is not None
 
 
 def sentence_subject(text: str) -> tuple[int, int] | None:

@@ -173,7 +173,7 @@ class SampleSizeComponent(_RuleComponent):
 
 @register_extractor(
     "context.rules",
-    5,
+    6,
     factory="context_rules",
     description="time point, method, subject, intervention, group; outcome of each measure",
 )

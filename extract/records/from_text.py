@@ -31,7 +31,7 @@ from extract.registry import register_extractor
 from extract.units import is_known_unit
 
 #: The extractor that reads sentences (the records-level reader over the nlp components).
-EXTRACTOR = "text.sentences@6"
+EXTRACTOR = "text.sentences@7"
 
 #: Sections whose sentences report data points.
 TEXT_SECTIONS: tuple[str, ...] = ("abstract", "results", "legends")
@@ -291,7 +291,7 @@ def block_drafts(block: Block) -> list[Draft]:
 
 
 @register_extractor(
-    "text.sentences", 6, factory=None, description="measures in sentences, linked to their context"
+    "text.sentences", 7, factory=None, description="measures in sentences, linked to their context"
 )
 def text_drafts(document: Document, *, sections: tuple[str, ...] = TEXT_SECTIONS) -> list[Draft]:
     """Drafts for every data point in the text of ``sections`` (figure legends included).
