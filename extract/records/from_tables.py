@@ -53,7 +53,7 @@ from extract.records.time_axis import time_axis_columns, time_axis_rows
 from extract.registry import register_extractor
 
 #: The extractor that reads table cells.
-EXTRACTOR = "tables.cells@7"
+EXTRACTOR = "tables.cells@8"
 
 _GROUP_WORDS = re.compile(
     r"\b(?:vehicle|control|controls|sham|placebo|saline|naive|naïve|untreated|treated|treatment|"
@@ -237,7 +237,7 @@ def _facts(table: Table) -> _TableFacts:
 
 
 @register_extractor(
-    "tables.cells", 7, factory=None, description="data cells of tables, with headers, n and spread"
+    "tables.cells", 8, factory=None, description="data cells of tables, with headers, n and spread"
 )
 def table_drafts(document: Document, table: Table, *, order: float = 0.0) -> list[Draft]:
     """One draft per data cell of ``table``, in row-major order.

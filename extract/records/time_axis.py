@@ -2,7 +2,8 @@
 
 A column headed by a time unit alone ("Month", "Week", "Day", "Time (months)") whose cells are
 small whole numbers is the time axis of the values in the same rows; a body row labelled so is
-the time axis of the values in the same columns. Such cells become the ``time_point`` of their
+the time axis of the values in the same columns. Label cells with no digit may stand beside the
+whole numbers (a "Month" row that also holds a text cell). Such cells become the ``time_point`` of their
 neighbours ("Month 6"), never data points of their own.
 """
 
@@ -36,10 +37,14 @@ def time_unit(label: str) -> str | None:
 
 
 def _small_whole(texts: list[str]) -> bool:
+    """True when the filled cells are small whole numbers, or such numbers (two or more) beside
+    label cells that hold no digit at all ("Month | 3 | 6 | Follow-up | 12")."""
     filled = [clean_label(t) for t in texts if t.strip()]
-    return bool(filled) and all(
-        re.fullmatch(r"\d{1,3}", t) is not None and int(t) <= _MAX_TIME for t in filled
-    )
+    numbers = [t for t in filled if re.fullmatch(r"\d{1,3}", t) and int(t) <= _MAX_TIME]
+    labels = [t for t in filled if not re.search(r"\d", t)]
+    if len(numbers) + len(labels) != len(filled) or not numbers:
+        return False
+    return not labels or len(numbers) >= 2
 
 
 def time_axis_columns(table: Table, labels: list[str]) -> dict[int, str]:

@@ -60,6 +60,29 @@ def test_week_row_is_the_time_point_of_its_column() -> None:
     assert cells[(2, 2)].time_point == "Week 8"
 
 
+def test_month_row_with_label_cells_is_still_a_time_axis() -> None:
+    # a time-axis row may hold a text cell beside its whole numbers (common practice in
+    # follow-up tables: a "Baseline" or "End" visit named in words)
+    grid = [
+        ["", "Start", "Visit 1", "Visit 2", "Visit 3"],
+        ["Month", "Baseline", "3", "6", "12"],
+        ["Tarsin level (ng/mL)", "4.0 ± 0.7", "3.4 ± 0.6", "2.9 ± 0.5", "2.5 ± 0.4"],
+    ]
+    cells = _run(make_table(grid), "fx-axis-mixed")
+    assert set(cells) == {(2, 1), (2, 2), (2, 3), (2, 4)}
+    assert cells[(2, 3)].time_point == "Month 6"
+
+
+def test_row_with_one_number_and_labels_is_no_time_axis() -> None:
+    grid = [
+        ["", "Velmora arm", "Usual care"],
+        ["Day", "7", "not done"],
+        ["Tarsin level (ng/mL)", "3.4 ± 0.6", "2.9 ± 0.5"],
+    ]
+    cells = _run(make_table(grid), "fx-axis-one")
+    assert (1, 1) in cells  # a lone number beside a text cell is not read as an axis
+
+
 def test_n_pct_labels() -> None:
     assert says_n_pct("n (%)")
     assert says_n_pct("No. (%)")
