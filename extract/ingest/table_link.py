@@ -15,7 +15,7 @@ from dataclasses import replace
 from extract.ingest.document import Block, Table, TableCell
 from extract.ingest.layout import RawBlock
 from extract.ingest.sections import looks_like_footnote
-from extract.ingest.tables import RawTable, unit_of
+from extract.ingest.tables import RawTable, raw_to_cells, unit_of
 
 logger = logging.getLogger(__name__)
 
@@ -184,11 +184,7 @@ def _to_table(
     raw: RawTable, label: str, caption: str, notes: list[str], section: str | None
 ) -> Table:
     n_cols = len(raw.rows[0])
-    cells = tuple(
-        TableCell(r, c, text, raw.boxes[r][c], raw.page)
-        for r, row in enumerate(raw.rows)
-        for c, text in enumerate(row)
-    )
+    cells = raw_to_cells(raw)
     column_units = []
     for c in range(n_cols):
         unit = None
