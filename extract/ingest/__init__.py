@@ -2,15 +2,11 @@
 
 from __future__ import annotations
 
-import importlib
-import logging
 from pathlib import Path
 from typing import Any
 
 from extract.ingest.document import Document
-from extract.ingest.sniff import SNIFF_BYTES, sniff
-
-logger = logging.getLogger(__name__)
+from extract.ingest.sniff import sniff
 
 __all__ = ["Document", "read_document", "sniff"]
 
@@ -37,11 +33,7 @@ def read_document(path: str | Path, *, settings: Any = None) -> Document:
         from extract.ingest.pdf import read_pdf
 
         return read_pdf(path, settings=settings)
-    jats = importlib.import_module("extract.ingest.jats")
-    with path.open("rb") as handle:
-        head = handle.read(SNIFF_BYTES)
-    if not jats.is_jats_bytes(head):
-        logger.debug("%s: XML without a JATS article head; the JATS reader says why", path)
+    from extract.ingest.jats import read_jats
+
     # the JATS reader reads a JATS article and names the reason for any other XML
-    document: Document = jats.read_jats(path)
-    return document
+    return read_jats(path)
