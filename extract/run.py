@@ -21,14 +21,13 @@ from typing import IO, Any
 
 from extract.errors import InputFileError, WinnowError
 from extract.ingest.document import Document
+from extract.ingest.sniff import sniff
 from extract.records.proposal import Proposal
 
 log = logging.getLogger(__name__)
 
 #: Most workers used by default (and never more than the CPU count).
 DEFAULT_MAX_WORKERS = 4
-#: Bytes read to recognise a file's kind and to look for an XML DOI.
-SNIFF_BYTES = 4096
 #: A DOI as printed (Crossref's recommended pattern, widened to common characters).
 DOI_PATTERN = re.compile(r"\b10\.\d{4,9}/[-._;()/:A-Za-z0-9]+[A-Za-z0-9]")
 
@@ -159,18 +158,15 @@ def collect_inputs(targets: Iterable[str | Path]) -> list[Path]:
 
 
 def sniff_kind(path: Path) -> str:
-    """``"pdf"`` or ``"xml"`` from the file's first bytes, else ``"unknown"`` (never raises)."""
+    """``"pdf"`` or ``"xml"`` from the file's first bytes, else ``"unknown"`` (never raises).
+
+    The same judgement the reader makes (:func:`extract.ingest.sniff`); a file it refuses or
+    cannot read is ``"unknown"`` here and fails with its reason when the worker reads it.
+    """
     try:
-        with path.open("rb") as handle:
-            head = handle.read(SNIFF_BYTES)
-    except OSError:
+        return sniff(path)
+    except WinnowError:
         return "unknown"
-    if head.lstrip()[:5] == b"%PDF-" or head[:1024].find(b"%PDF-") >= 0:
-        return "pdf"
-    text = head.lstrip(b"\xef\xbb\xbf \t\r\n")
-    if text.startswith(b"<?xml") or text.startswith(b"<!DOCTYPE") or text.startswith(b"<article"):
-        return "xml"
-    return "unknown"
 
 
 def file_sha256(path: Path) -> str:
@@ -233,7 +229,11 @@ class _Plan:
 def plan_batch(
     paths: Sequence[Path], *, is_processed: Callable[[str], bool] | None = None
 ) -> _Plan:
-    """Decide what each file needs: repeats and PDFs with an XML twin drop out, done ones skip."""
+    """Decide what each file needs: repeats and PDFs with an XML twin drop out, done ones skip.
+
+    A PDF's DOI is only looked for where it can matter: when the batch holds an XML file with a
+    DOI (a possible twin) or when the file is skipped (its report names the article).
+    """
     plan = _Plan()
     inputs: list[InputFile] = []
     seen: dict[str, Path] = {}
@@ -251,9 +251,11 @@ def plan_batch(
             continue
         seen[sha] = path
         kind = sniff_kind(path)
-        inputs.append(InputFile(path, sha, kind, peek_doi(path, kind)))
+        inputs.append(InputFile(path, sha, kind, peek_doi(path, kind) if kind == "xml" else None))
     xml_by_doi = {item.doi.casefold(): item for item in inputs if item.kind == "xml" and item.doi}
     for item in inputs:
+        if item.kind == "pdf" and xml_by_doi:
+            item = replace(item, doi=peek_doi(item.path, item.kind))
         twin = xml_by_doi.get(item.doi.casefold()) if item.kind == "pdf" and item.doi else None
         if twin is not None:
             plan.reports[item.path] = FileReport(
@@ -263,6 +265,8 @@ def plan_batch(
                 note=f"same DOI as {twin.path.name}: extracted once, from the XML",
             )
         elif is_processed is not None and is_processed(item.sha256):
+            if item.kind == "pdf" and not xml_by_doi:
+                item = replace(item, doi=peek_doi(item.path, item.kind))
             plan.skipped.append(item)
         else:
             plan.todo.append(item)

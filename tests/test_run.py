@@ -143,3 +143,28 @@ def test_run_for_evaluation_reports_each_file_once_also_failures(folder: Path) -
     inputs = run_for_evaluation(paths, with_first_pass=False, workers=1, on_file=seen.append)
     assert sorted(seen) == sorted(str(p) for p in paths)
     assert [Path(f.path).name for f in inputs.failures] == ["broken.pdf"]
+
+
+def test_plan_reads_pdf_dois_only_where_they_matter(
+    folder: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    # A PDF's DOI is wanted for an XML twin or a skipped file's report, never otherwise.
+    import extract.run as run
+
+    peeked: list[str] = []
+    real_peek = run.peek_doi
+
+    def counting_peek(path: Path, kind: str) -> str | None:
+        peeked.append(path.name)
+        return real_peek(path, kind)
+
+    monkeypatch.setattr(run, "peek_doi", counting_peek)
+    plan_batch([folder / "a.pdf", folder / "b.pdf"])
+    assert peeked == []
+    done = {file_sha256(folder / "b.pdf")}
+    plan = plan_batch([folder / "a.pdf", folder / "b.pdf"], is_processed=lambda sha: sha in done)
+    assert peeked == ["b.pdf"] and [i.path.name for i in plan.skipped] == ["b.pdf"]
+    peeked.clear()
+    plan = plan_batch([folder / "a.pdf", folder / "a.xml"])
+    assert sorted(peeked) == ["a.pdf", "a.xml"]
+    assert plan.reports[folder / "a.pdf"].status == "replaced"
