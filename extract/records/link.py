@@ -539,8 +539,24 @@ CONFIDENCE_PENALTIES: dict[str, float] = {
     "time_point_from_methods": 0.95,
     "spread_like_percent": 0.7,
 }
+#: An outcome or group that is only a statistic word, a test symbol or a single letter ("total",
+#: "number", "p", "vs", "s d", "A"): a label read from the wrong place.
+_PLACEHOLDER = re.compile(
+    r"(?:total|number|no|n|mean|median|average|maximum|minimum|max|min|sd|se|sem|ci|p|vs|"
+    r"s ?d|range|value|values|overall|all|mixed|[a-z])",
+    re.I,
+)
+#: Factor for a record whose outcome or group is such a placeholder.
+PLACEHOLDER_PENALTY = 0.75
 #: Statistics that need no unit (a count or a percentage is complete without one).
 _UNITLESS = frozenset({"count", "percent"})
+
+
+def _is_placeholder(label: str | None) -> bool:
+    return (
+        bool(label)
+        and _PLACEHOLDER.fullmatch(re.sub(r"[^\w ]", "", label or "").strip()) is not None
+    )
 
 
 def confidence(draft: Draft) -> float:
@@ -549,7 +565,8 @@ def confidence(draft: Draft) -> float:
     The weighted mean of how each field was found (``FOUND_WEIGHTS``: the value's own text
     1.0 ... assumed 0.45; ``CONFIDENCE_WEIGHTS``), times a factor for each flag in
     ``CONFIDENCE_PENALTIES``, times 0.85 for a bare value (no spread, no unit, a statistic no
-    label names). A field the data point has no need of (no spread printed, no group; no unit
+    label names), times ``PLACEHOLDER_PENALTY`` when the outcome or group is only a statistic
+    word or a letter ("total", "p", "A"). A field the data point has no need of (no spread printed, no group; no unit
     for a count or percentage) does not count; a missing n, outcome or unit does.
     """
     total = 0.0
@@ -569,6 +586,8 @@ def confidence(draft: Draft) -> float:
     score = total / weight if weight else 0.0
     for flag in draft.flags:
         score *= CONFIDENCE_PENALTIES.get(flag, 1.0)
+    if any(_is_placeholder(label) for label in (draft.outcome, draft.group)):
+        score *= PLACEHOLDER_PENALTY
     if (
         draft.dispersion_value is None
         and draft.unit is None

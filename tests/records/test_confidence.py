@@ -163,3 +163,21 @@ def test_stated_value_sd_unit_n_is_high_and_assumptions_lower_it() -> None:
         found=(("value", "cell"), ("outcome", "row"), ("statistic", "assumed")),
     )
     assert confidence(bare) < 0.7
+
+
+def test_statistic_word_as_outcome_or_group_scores_lower() -> None:
+    # A label that is only a statistic word or a test symbol names no measured thing or group
+    # (common practice: an outcome is a measured quantity, a group a set of subjects).
+    stated = confidence(_draft())
+    for outcome in ("total", "P", "vs", "s d", "Number"):
+        assert confidence(replace(_draft(), outcome=outcome)) < stated
+    assert confidence(replace(_draft(), group="Mean")) < stated
+    assert confidence(replace(_draft(), outcome="total protein")) == stated
+
+
+def test_fixture_records_keep_their_confidence(document: Document) -> None:
+    # The fixture's correct records (gold fx04-rodent) carry real outcome and group labels:
+    # none is scored as a placeholder, so the degraded-input ranking above is unchanged.
+    gold = load_gold(GOLD)
+    correct = [p for g, p in match(gold.points, first_pass(document)) if is_complete(g, p)]
+    assert correct and all(p.confidence >= 0.75 for p in correct)
