@@ -460,30 +460,29 @@ def match(
 # Scoring
 
 
-def _gold_features(article: GoldArticle, point: GoldPoint) -> list[str]:
+def _features(
+    article: GoldArticle, where: str, table: str | None, *, style_unknown: str
+) -> list[str]:
+    """The breakdown keys a gold point or a proposal is counted under."""
     features = [
         f"article={article.name}",
         f"scenario={article.scenario}",
         f"columns={article.columns}",
-        f"where={point.where}",
+        f"where={where}",
     ]
-    if point.where == "table":
-        style = article.table_styles.get(_norm_label(point.table), "unknown")
+    if where == "table":
+        style = article.table_styles.get(_norm_label(table), style_unknown)
         features.append(f"table_style={style}")
     return features
+
+
+def _gold_features(article: GoldArticle, point: GoldPoint) -> list[str]:
+    return _features(article, point.where, point.table, style_unknown="unknown")
 
 
 def _proposal_features(article: GoldArticle, proposal: Proposal) -> list[str]:
-    features = [
-        f"article={article.name}",
-        f"scenario={article.scenario}",
-        f"columns={article.columns}",
-        f"where={proposal.source.kind}",
-    ]
-    if proposal.source.kind == "table":
-        style = article.table_styles.get(_norm_label(proposal.source.table), "label-not-in-gold")
-        features.append(f"table_style={style}")
-    return features
+    source = proposal.source
+    return _features(article, source.kind, source.table, style_unknown="label-not-in-gold")
 
 
 def score_article(article: GoldArticle, proposals: Sequence[Proposal]) -> Scores:
