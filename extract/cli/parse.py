@@ -14,7 +14,6 @@ from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, T
 from rich.table import Table as RichTable
 
 from extract.batch import DEFAULT_TIMEOUT, FileResult, find_files, run_batch
-from extract.errors import WinnowError
 from extract.ingest import read_document
 from extract.ingest.document import Document
 
@@ -26,8 +25,7 @@ NOTICE = (
 
 def parse_file(path: Path, *, keep_words: bool = False) -> Document:
     """Read one file (module-level so that worker processes can run it)."""
-    settings = None if path.suffix.lower() == ".xml" else {"keep_words": keep_words}
-    return read_document(path, settings=settings) if settings else read_document(path)
+    return read_document(path, settings={"keep_words": keep_words})  # XML ignores settings
 
 
 def _summary(document: Document, console: Console) -> None:
@@ -102,10 +100,7 @@ def command(
     func = partial(parse_file, keep_words=words)
     results: list[FileResult[Document]] = []
     if len(files) == 1:
-        try:
-            results = [FileResult(str(files[0]), value=func(files[0]))]
-        except WinnowError as error:
-            results = [FileResult(str(files[0]), error=error)]
+        results = list(run_batch(func, files, workers=0).results)  # in this process, no pool
     elif files:
         with Progress(
             TextColumn("{task.description}"),
