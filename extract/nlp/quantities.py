@@ -744,6 +744,38 @@ def _quantulum() -> Any:
     return _quantulum_parser
 
 
+#: How far after a number word quantulum3 reads (its unit follows the number: "twelve mice").
+_WINDOW_AFTER = 48
+
+
+def _number_word_windows(text: str) -> list[tuple[int, int]]:
+    """Stretches of ``text`` that start at a number word and run a few words past it, merged.
+
+    quantulum3's cost grows with the text it reads; a quantity written in words starts at its
+    first number word and ends within a few words, so only these stretches are read.
+    """
+    windows: list[tuple[int, int]] = []
+    for match in _NUMBER_WORD_RE.finditer(text):
+        end = min(len(text), match.end() + _WINDOW_AFTER)
+        space = text.find(" ", end)
+        end = len(text) if space == -1 else space
+        if windows and match.start() <= windows[-1][1]:
+            windows[-1] = (windows[-1][0], max(windows[-1][1], end))
+        else:
+            windows.append((match.start(), end))
+    return windows
+
+
+def _parse_number_word_windows(parser: Any, text: str) -> list[tuple[int, int, Any]]:
+    """quantulum3's quantities in the number-word stretches, with spans in ``text``."""
+    found = []
+    for offset, stop in _number_word_windows(text):
+        for parsed in parser.parse(text[offset:stop]):
+            start, end = parsed.span
+            found.append((offset + start, offset + end, parsed))
+    return found
+
+
 def _quantulum_quantities(text: str, *, taken: list[tuple[int, int]]) -> list[Quantity]:
     """Numbers written as words ("twelve mice", "forty milligrams"), read by quantulum3."""
     if not _text_has_number_words(text):
@@ -751,8 +783,7 @@ def _quantulum_quantities(text: str, *, taken: list[tuple[int, int]]) -> list[Qu
     parser = _quantulum()
     norm = normalize_text(text)
     found = []
-    for parsed in parser.parse(text):
-        start, end = parsed.span
+    for start, end, parsed in _parse_number_word_windows(parser, text):
         if any(a < end and start < b for a, b in taken):
             continue
         surface = text[start:end]

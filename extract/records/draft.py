@@ -7,7 +7,6 @@ derives the SD, normalises the unit, scores confidence from ``found`` and gives 
 
 from __future__ import annotations
 
-import copy
 from dataclasses import dataclass, field, fields
 from typing import Any
 
@@ -87,9 +86,10 @@ class Draft:
         unknown = set(changes) - _FIELD_NAMES
         if unknown:
             raise TypeError(f"Draft has no field(s) {sorted(unknown)}")
-        new = copy.copy(self)
-        for name, value in changes.items():
-            object.__setattr__(new, name, value)
+        new = object.__new__(Draft)
+        state = new.__dict__
+        state.update(self.__dict__)
+        state.update(changes)
         return new
 
 

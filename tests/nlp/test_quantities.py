@@ -337,3 +337,26 @@ def test_count_of_a_total_stays_a_measure() -> None:
         (46, 108, "measure"),
         (3, 108, "measure"),
     ]
+
+
+def test_number_word_windows_cover_each_quantity_and_merge() -> None:
+    from extract.nlp.quantities import _number_word_windows
+
+    text = "Each cage held twelve mice; forty-five rats and ten hamsters were weighed at week 8."
+    windows = _number_word_windows(text)
+    # every number word lies in a window that starts at it or earlier, and windows never overlap
+    for word in ("twelve", "forty", "five", "ten"):
+        at = text.index(word)
+        assert any(start <= at < end for start, end in windows)
+    assert all(a[1] < b[0] for a, b in zip(windows, windows[1:], strict=False))
+    assert windows[0][0] == text.index("twelve")
+    assert _number_word_windows("Body mass was 24.1 ± 1.3 g.") == []
+
+
+@pytest.mark.parametrize(
+    ("text", "value"),
+    [("Twelve mice per group were used.", 12.0), ("They drank forty millilitres daily.", 40.0)],
+)
+def test_number_words_read_in_their_window(text: str, value: float) -> None:
+    values = [q.value for q in find_quantities(text)]
+    assert value in values
