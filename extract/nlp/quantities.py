@@ -252,10 +252,6 @@ _TIME_BEFORE = re.compile(
     re.I,
 )
 _TIME_WORD_BEFORE = re.compile(r"\b(?:week|day|month|year|hour|visit|cycle|wk|d)\s*$", re.I)
-_TIME_AFTER = re.compile(
-    r"^\s*(?:after|post|later|before|prior|of (?:treatment|dosing|follow-up|feeding|exposure))",
-    re.I,
-)
 _TIME_UNITS = frozenset(
     "s sec second seconds min mins minute minutes h hr hrs hour hours d day days wk wks week"
     " weeks mo month months y yr yrs year years".split()
@@ -826,7 +822,6 @@ def _quantulum_quantities(text: str, *, taken: list[tuple[int, int]]) -> list[Qu
 _EMPTY_CELLS = frozenset(
     {"", "-", "–", "—", "n.d.", "nd", "n/a", "na", "ns", "n.s.", "…", "...", "−"}
 )
-_HEADER_UNIT = re.compile(r"\(([^()]*)\)\s*$|,\s*([^,]+)$|\[([^\[\]]*)\]\s*$")
 
 
 def _unit_from_header(header: str) -> str | None:

@@ -28,11 +28,6 @@ NORMAL_CI95_WIDTH = 3.92
 _SIMPSON_STEPS = 600
 
 
-def _t_density(x: float, df: int) -> float:
-    """Student's t density with ``df`` degrees of freedom."""
-    return math.exp(_t_log_norm(df) - (df + 1) / 2 * math.log1p(x * x / df))
-
-
 @lru_cache(maxsize=256)
 def _t_log_norm(df: int) -> float:
     return math.lgamma((df + 1) / 2) - math.lgamma(df / 2) - 0.5 * math.log(df * math.pi)
