@@ -96,6 +96,9 @@ _UCUM_ATOMS: dict[str, str] = {
     "international_unit": "[IU]",
     "equivalent": "eq",
     "percent": "%",
+    "ppm": "[ppm]",
+    "ppb": "[ppb]",
+    "ppth": "[ppth]",
     "meter_Hg": "m[Hg]",
     "millimeter_Hg": "mm[Hg]",
     "meter_H2O": "m[H2O]",
@@ -154,6 +157,7 @@ _REWRITES: tuple[tuple[re.Pattern[str], str], ...] = (
     (re.compile(r"\bdeg\s+([CF])\b"), r"deg\1"),
     (re.compile(r"\bI\.U\.", re.I), "IU"),
     (re.compile(r"\bmeq\b"), "mEq"),
+    (re.compile(r"‰"), "ppth"),
     (re.compile(r"\s+per\s+", re.I), "/"),
 )
 # A power-of-ten multiplier: "×10³", "x10^3", "× 10^9", "10*3" (UCUM), "10^9", "10E3".

@@ -181,3 +181,14 @@ def test_normalize_agrees_with_pint_conversion(value: float, unit: str, target: 
     assert normalize(value, unit).value == pytest.approx(
         float(expected.magnitude) / float(canonical.magnitude)
     )
+
+
+@pytest.mark.parametrize(
+    ("unit", "ucum", "fraction"),
+    [("ppm", "[ppm]", 1e-6), ("ppb", "[ppb]", 1e-9), ("‰", "[ppth]", 1e-3)],
+)
+def test_parts_per_units_have_ucum_codes(unit: str, ucum: str, fraction: float) -> None:
+    # UCUM 2.1, dimensionless units "parts per thousand/million/billion": [ppth] = 10^-3,
+    # [ppm] = 10^-6, [ppb] = 10^-9
+    assert to_ucum(unit) == ucum
+    assert float(parse_unit(unit).to("dimensionless").magnitude) == pytest.approx(fraction)
