@@ -22,6 +22,7 @@ from extract.records.patterns import (
     find_group_n,
     find_n,
     group_and_n,
+    header_levels,
     is_plausible_unit,
     read_cell,
     split_label,
@@ -147,12 +148,8 @@ def _header_levels(table: Table, col: int) -> _Header:
     statistic: str | None = None
     total: int | None = None
     qualifier: str | None = None
-    seen: list[str] = []
-    for r in range(table.header_rows):
-        text = clean_label(table.cell(r, col).text)
-        if not text or text in seen:
-            continue
-        seen.append(text)
+    levels = header_levels(table, col)
+    for text in levels:
         if _TIME_WORDS.match(text) and time_point is None:
             time_point = text
         elif col > 0 and qualifier is None and (split := comparison_level(text)) is not None:
@@ -171,7 +168,7 @@ def _header_levels(table: Table, col: int) -> _Header:
         else:
             parts.append(text)
     label = " ".join(parts)
-    return _Header(label, time_point, statistic, total, " ".join(seen), qualifier)
+    return _Header(label, time_point, statistic, total, " ".join(levels), qualifier)
 
 
 def _is_n_label(label: str) -> bool:

@@ -12,7 +12,7 @@ from __future__ import annotations
 import re
 
 from extract.ingest.document import Table
-from extract.records.patterns import clean_label
+from extract.records.patterns import clean_label, header_levels
 from extract.records.table_labels import stat_row
 
 #: A header level that names only a sample size.
@@ -23,15 +23,6 @@ _VALUE_LEVEL = re.compile(
     r"median\s*(?:\(|\[)?\s*(?:IQR|range|Q1\s*[,–-]\s*Q3)\s*(?:\)|\])?)$",
     re.I,
 )
-
-
-def _levels(table: Table, col: int) -> list[str]:
-    levels: list[str] = []
-    for r in range(table.header_rows):
-        text = clean_label(table.cell(r, col).text)
-        if text and text not in levels:
-            levels.append(text)
-    return levels
 
 
 def is_value_level(text: str) -> bool:
@@ -52,7 +43,7 @@ def _pairs_with(table: Table, others: list[str], col: int) -> bool:
     """True when ``col`` sits under the same other levels and names a value statistic."""
     if not 0 < col < table.n_cols:
         return False
-    levels = _levels(table, col)
+    levels = header_levels(table, col)
     if _n_split(levels) is not None or not all(level in levels for level in others):
         return False
     rest = [level for level in levels if level not in others]
@@ -76,7 +67,7 @@ def n_columns(table: Table) -> dict[int, int]:
     """
     options: dict[int, list[int]] = {}
     for col in range(1, table.n_cols):
-        others = _n_split(_levels(table, col))
+        others = _n_split(header_levels(table, col))
         if others is None:
             continue
         sides = [side for side in (1, -1) if _pairs_with(table, others, col + side)]

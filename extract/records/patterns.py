@@ -3,7 +3,7 @@
 Numbers, spreads, dispersion statements and sample sizes are read by :mod:`extract.nlp`
 (``quantities.parse_cell``, ``quantities.find_dispersion_statement``,
 ``sample_size.find_sample_sizes``). What stays here is the shape of table labels: footnote marks
-on cells, empty marks, "Body mass (g)" (a label and its unit), "Vehicle (n = 9)" (a group and its
+on cells, empty marks, a column's header levels, "Body mass (g)" (a label and its unit), "Vehicle (n = 9)" (a group and its
 n), and the per-group n of a statement, read through the nlp sample-size reader.
 
 The label and cell readers are pure functions of their text and are cached: a table repeats its
@@ -15,6 +15,7 @@ from __future__ import annotations
 import re
 from functools import lru_cache
 
+from extract.ingest.document import Table
 from extract.nlp.quantities import Quantity, parse_cell
 from extract.nlp.sample_size import find_sample_sizes
 from extract.units import is_known_unit
@@ -72,6 +73,20 @@ def clean_label(text: str) -> str:
     """A header or row label without footnote markers: "Status not recorded†" -> "Status not
     recorded", "Total²" -> "Total", "* Excluded" -> "Excluded"."""
     return " ".join(_LABEL_MARKS.sub("", " ".join(text.split())).split())
+
+
+def header_levels(table: Table, col: int) -> list[str]:
+    """The distinct header texts of column ``col``, top down, without footnote marks.
+
+    A spanning header repeats its text in every column it covers; each text is kept once and
+    empty levels are dropped.
+    """
+    levels: list[str] = []
+    for r in range(table.header_rows):
+        text = clean_label(table.cell(r, col).text)
+        if text and text not in levels:
+            levels.append(text)
+    return levels
 
 
 @lru_cache(maxsize=16384)

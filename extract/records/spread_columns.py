@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 from extract.ingest.document import Table
 from extract.records.draft import Draft
-from extract.records.patterns import clean_label, read_cell
+from extract.records.patterns import clean_label, header_levels, read_cell
 
 #: A header level that ends in a spread word: "SE", "SD", "95% CI", "Group 1 SE".
 _SPREAD_LEVEL = re.compile(
@@ -55,15 +55,6 @@ def spread_level(text: str) -> tuple[str, str] | None:
     return match["head"].strip(" ,;:-"), kind
 
 
-def _levels(table: Table, col: int) -> list[str]:
-    levels: list[str] = []
-    for r in range(table.header_rows):
-        text = clean_label(table.cell(r, col).text)
-        if text and text not in levels:
-            levels.append(text)
-    return levels
-
-
 def spread_columns(
     table: Table, *, skip: set[int] | frozenset[int] = frozenset()
 ) -> list[SpreadColumn]:
@@ -84,7 +75,7 @@ def spread_columns(
     """
     found: dict[int, tuple[list[str], str]] = {}
     for col in range(1, table.n_cols):
-        levels = _levels(table, col)
+        levels = header_levels(table, col)
         for index in range(len(levels) - 1, -1, -1):
             read = spread_level(levels[index])
             if read is None:
@@ -99,7 +90,7 @@ def spread_columns(
         for left in range(col - 1, 0, -1):
             if left in found or left in skip:
                 continue
-            levels = _levels(table, left)
+            levels = header_levels(table, left)
             if all(level in levels for level in others):
                 pairs.append(SpreadColumn(col, left, kind))
             break
