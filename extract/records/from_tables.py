@@ -157,12 +157,12 @@ def _header_levels(table: Table, col: int) -> _Header:
             rest, qualifier = split
             if rest:
                 parts.append(rest)
-        elif col > 0 and numeric_level(text) is not None and total is None:
-            total = numeric_level(text)
+        elif col > 0 and total is None and (number := numeric_level(text)) is not None:
+            total = number
         elif col > 0 and table.header_rows > 1 and is_stat_level(text) and statistic is None:
             statistic = _level_statistic(text)
-        elif col > 0 and table.header_rows > 1 and statistic is None and stat_row(text):
-            statistic = (stat_row(text) or ("mean", None))[0]  # "Mean (SD)" under a group
+        elif col > 0 and table.header_rows > 1 and statistic is None and (named := stat_row(text)):
+            statistic = named[0]  # "Mean (SD)" under a group
         elif col > 0 and table.header_rows > 1 and is_ratio_label(text) and statistic is None:
             statistic = "other"  # "HR (95% CI)" over the comparison it reports
         else:

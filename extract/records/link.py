@@ -124,7 +124,6 @@ def read_context(document: Document, *, subject: str | None = None) -> ArticleCo
         for sentence in _sentences(block.text)
     ]
     by_sentence = [(sentence, find_context(sentence)) for sentence in sentences]
-    mentions = [m for _, found in by_sentence for m in found]
     # The study's subjects are those the methods say were studied ("thirty patients were
     # included"); a subject word in other sentences ("RNA from blood cells") is no description.
     studied = [m for sentence, found in by_sentence if _STUDIED.search(sentence) for m in found]
