@@ -7,9 +7,9 @@ tokenizer (``winnow.tokenizer.v1``) and these registered components:
 spaCy factory          extractor id              sets
 =====================  ========================  ================================================
 ``sentences_rules``    ``sentences.rules@1``     ``token.is_sent_start``
-``quantities_rules``   ``quantities.rules@2``    ``doc.spans["quantities"]``, ``span._.quantity``
+``quantities_rules``   ``quantities.rules@3``    ``doc.spans["quantities"]``, ``span._.quantity``
 ``sample_size_rules``  ``sample_size.rules@2``   ``doc.spans["sample_sizes"]``, ``span._.sample_size``
-``context_rules``      ``context.rules@3``       ``doc.spans["context"]``, ``span._.context``
+``context_rules``      ``context.rules@6``       ``doc.spans["context"]``, ``span._.context``
 =====================  ========================  ================================================
 
 Span labels are the quantity's role, the sample size's scope and the context kind. The pipeline
@@ -119,12 +119,6 @@ class _RuleComponent:
         return self
 
 
-@register_extractor(
-    "quantities.rules",
-    3,
-    factory="quantities_rules",
-    description="values, units, SD/SEM/CI/IQR/range, counts with percent, roles",
-)
 class QuantitiesComponent(_RuleComponent):
     """Finds every number per sentence; ``doc.spans["quantities"]`` labelled by role."""
 
@@ -144,12 +138,14 @@ class QuantitiesComponent(_RuleComponent):
         return doc
 
 
-@register_extractor(
-    "sample_size.rules",
-    2,
-    factory="sample_size_rules",
-    description="sample sizes: n = 8 per group, Vehicle (n = 9), n = 6-8, twelve mice per group",
-)
+register_extractor(
+    QuantitiesComponent.name,
+    QuantitiesComponent.version,
+    factory="quantities_rules",
+    description="values, units, SD/SEM/CI/IQR/range, counts with percent, roles",
+)(QuantitiesComponent)
+
+
 class SampleSizeComponent(_RuleComponent):
     """Finds sample sizes per sentence; ``doc.spans["sample_sizes"]`` labelled by scope."""
 
@@ -171,12 +167,14 @@ class SampleSizeComponent(_RuleComponent):
         return doc
 
 
-@register_extractor(
-    "context.rules",
-    6,
-    factory="context_rules",
-    description="time point, method, subject, intervention, group; outcome of each measure",
-)
+register_extractor(
+    SampleSizeComponent.name,
+    SampleSizeComponent.version,
+    factory="sample_size_rules",
+    description="sample sizes: n = 8 per group, Vehicle (n = 9), n = 6-8, twelve mice per group",
+)(SampleSizeComponent)
+
+
 class ContextComponent(_RuleComponent):
     """Finds context mentions per sentence, plus the outcome of each measured value.
 
@@ -184,7 +182,7 @@ class ContextComponent(_RuleComponent):
     """
 
     name = "context.rules"
-    version = 4
+    version = 6
 
     def __call__(self, doc: Doc) -> Doc:
         spans = []
@@ -225,6 +223,14 @@ class ContextComponent(_RuleComponent):
                     spans.append(span)
         doc.spans["context"] = spans
         return doc
+
+
+register_extractor(
+    ContextComponent.name,
+    ContextComponent.version,
+    factory="context_rules",
+    description="time point, method, subject, intervention, group; outcome of each measure",
+)(ContextComponent)
 
 
 def _is_text_count(quantity: Quantity | None) -> bool:
