@@ -113,17 +113,7 @@ def baseline_proposals(document: Document) -> list[Proposal]:
                     method=None,
                     subject=None,
                     intervention=None,
-                    source=Source(
-                        kind="text",
-                        page=block.page,
-                        bbox=block.bbox,
-                        section=block.section,
-                        table=None,
-                        row=None,
-                        col=None,
-                        quote=surface,
-                        ref=block.ref,
-                    ),
+                    source=Source.of_text(block, surface, bbox=block.bbox),
                     extractor=BASELINE_EXTRACTOR,
                     confidence=0.5,
                 )

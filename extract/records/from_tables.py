@@ -515,24 +515,13 @@ def _cell_draft(
     order: float,
     outcome_how: str | None = None,
 ) -> Draft | None:
-    cell = table.cell(row, col)
     outcome_label, group_label = (row_label, col_label) if by_columns else (col_label, row_label)
     outcome, _ = split_label(outcome_label)
     if not outcome or _STAT_LABEL.match(outcome):
         return None
     group, _ = group_and_n(group_label)
     disp_value = parsed.spread.value if parsed.spread is not None else None
-    source = Source(
-        kind="table",
-        page=cell.page if cell.page is not None else table.page,
-        bbox=cell.bbox,
-        section=table.section,
-        table=table.label,
-        row=row,
-        col=col,
-        quote=" ".join(cell.text.split()),
-        ref=table.ref,
-    )
+    source = Source.of_cell(table, row, col)
     statistic: str | None = None
     if parsed.percent is not None:
         statistic = "count"

@@ -146,17 +146,7 @@ def _n_for(
 
 
 def _source(block: Block, text: str) -> Source:
-    return Source(
-        kind="text",
-        page=block.page,
-        bbox=block.bbox,
-        section=block.section,
-        table=None,
-        row=None,
-        col=None,
-        quote=text.strip(),
-        ref=block.ref,
-    )
+    return Source.of_text(block, text.strip(), bbox=block.bbox)
 
 
 def sentence_drafts(

@@ -12,6 +12,8 @@ import json
 from dataclasses import dataclass, field, fields, replace
 from typing import Any
 
+from extract.ingest.document import Block, Table
+
 #: Allowed values of ``statistic``.
 STATISTICS: tuple[str, ...] = ("mean", "median", "percent", "count", "single", "other")
 
@@ -82,6 +84,39 @@ class Source:
         if self.ref is not None:
             data["ref"] = self.ref
         return data
+
+    @classmethod
+    def of_text(
+        cls, block: Block, quote: str, *, bbox: tuple[float, float, float, float] | None = None
+    ) -> Source:
+        """A text source: the quoted sentence of a block, located by the block's page or ref."""
+        return cls(
+            kind="text",
+            page=block.page,
+            bbox=bbox,
+            section=block.section,
+            table=None,
+            row=None,
+            col=None,
+            quote=quote,
+            ref=block.ref,
+        )
+
+    @classmethod
+    def of_cell(cls, table: Table, row: int, col: int, *, quote: str | None = None) -> Source:
+        """A table source: one cell, quoted whitespace-normalised unless ``quote`` is given."""
+        cell = table.cell(row, col)
+        return cls(
+            kind="table",
+            page=cell.page if cell.page is not None else table.page,
+            bbox=cell.bbox,
+            section=table.section,
+            table=table.label,
+            row=row,
+            col=col,
+            quote=" ".join(cell.text.split()) if quote is None else quote,
+            ref=table.ref,
+        )
 
     @classmethod
     def from_dict(cls, data: dict[str, Any]) -> Source:

@@ -121,17 +121,7 @@ def from_cell(
     else:
         unit = label_unit or header_unit
     n_match = _N_RE.search(header) or _N_RE.search(table.row_label(row))
-    source = Source(
-        kind="table",
-        page=cell.page if cell.page is not None else table.page,
-        bbox=cell.bbox,
-        section=table.section,
-        table=table.label,
-        row=row,
-        col=col,
-        quote=cell.text,
-        ref=table.ref,
-    )
+    source = Source.of_cell(table, row, col, quote=cell.text)
     return Proposal(
         **_base(article, file, source),  # type: ignore[arg-type]
         outcome=outcome,
@@ -160,17 +150,7 @@ def from_sentence(
     sentence = block.text[span[0] : span[1]]
     value, dispersion, unit = first_value(sentence, kind=spread_kind(sentence))
     n_match = _N_RE.search(sentence)
-    source = Source(
-        kind="text",
-        page=block.page,
-        bbox=None,
-        section=block.section,
-        table=None,
-        row=None,
-        col=None,
-        quote=sentence,
-        ref=block.ref,
-    )
+    source = Source.of_text(block, sentence)
     return Proposal(
         **_base(article, file, source),  # type: ignore[arg-type]
         outcome=template.outcome if template else "",
